@@ -1,0 +1,111 @@
+package calc
+
+import (
+	"fmt"
+	"strconv"
+	"strings"
+)
+
+// FieldError is bad input that the user can fix: it names the field (its
+// path in the project file, such as "pile.length_m"), the value given and
+// what is allowed.
+type FieldError struct {
+	Field   string // path in the project file, e.g. "drops_m[2]"
+	Value   string // the value as given, "" when missing
+	Allowed string // the allowed range or choices, e.g. "0.05 to 5 m"
+	Problem string // what is wrong, e.g. "is out of range"
+}
+
+func (e *FieldError) Error() string {
+	var b strings.Builder
+	b.WriteString("setcard: ")
+	b.WriteString(e.Field)
+	if e.Value != "" {
+		b.WriteString(" = ")
+		b.WriteString(e.Value)
+	}
+	b.WriteString(" ")
+	b.WriteString(e.Problem)
+	if e.Allowed != "" {
+		b.WriteString("; allowed: ")
+		b.WriteString(e.Allowed)
+	}
+	return b.String()
+}
+
+// Errors is every problem found in one project. It is returned as a whole
+// so that a form can mark each field at once.
+type Errors []*FieldError
+
+func (es Errors) Error() string {
+	if len(es) == 0 {
+		return "setcard: no errors"
+	}
+	msgs := make([]string, len(es))
+	for i, e := range es {
+		msgs[i] = e.Error()
+	}
+	return strings.Join(msgs, "\n")
+}
+
+// Unwrap lets errors.As find each *FieldError.
+func (es Errors) Unwrap() []error {
+	out := make([]error, len(es))
+	for i, e := range es {
+		out[i] = e
+	}
+	return out
+}
+
+// formatNum writes a number as a person would type it back.
+func formatNum(v float64) string {
+	return strconv.FormatFloat(v, 'g', -1, 64)
+}
+
+// errs collects field errors during validation.
+type errs struct{ list Errors }
+
+func (c *errs) add(field, value, allowed, problem string) {
+	c.list = append(c.list, &FieldError{Field: field, Value: value, Allowed: allowed, Problem: problem})
+}
+
+// rng checks lo ≤ v ≤ hi and that v is finite.
+func (c *errs) rng(field string, v, lo, hi float64, unit string) bool {
+	allowed := fmt.Sprintf("%s to %s%s", formatNum(lo), formatNum(hi), unitSuffix(unit))
+	if !finite(v) {
+		c.add(field, formatNum(v), allowed, "is not a finite number")
+		return false
+	}
+	if v < lo || v > hi {
+		c.add(field, formatNum(v), allowed, "is out of range")
+		return false
+	}
+	return true
+}
+
+// need reports a missing required number.
+func (c *errs) need(field string, p *float64, lo, hi float64, unit string) (float64, bool) {
+	if p == nil {
+		c.add(field, "", fmt.Sprintf("%s to %s%s", formatNum(lo), formatNum(hi), unitSuffix(unit)), "is required")
+		return 0, false
+	}
+	return *p, c.rng(field, *p, lo, hi, unit)
+}
+
+// opt checks an optional number, returning def when it is absent.
+func (c *errs) opt(field string, p *float64, def, lo, hi float64, unit string) float64 {
+	if p == nil {
+		return def
+	}
+	if !c.rng(field, *p, lo, hi, unit) {
+		return def
+	}
+	return *p
+}
+
+func unitSuffix(unit string) string {
+	if unit == "" {
+		return ""
+	}
+	return " " + unit
+}
