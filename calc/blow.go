@@ -86,6 +86,10 @@ type Blow struct {
 	// HeadStressMPa is R_u/A.
 	HeadStressMPa float64
 	Category      int // column of the compression table, 0 easy … 3 very hard
+	// ColumnEdge is, for the banded method, the column k when the answer
+	// straddles the edge between columns k and k+1 (no column is
+	// consistent, and the edge is reported); -1 otherwise.
+	ColumnEdge int
 	Zone          Zone
 	UltimateKN    float64
 	DesignKN      float64
@@ -166,37 +170,37 @@ func (m *Model) ccInterp(stressMPa float64) float64 {
 // piece holds the root; it is found by evaluating the left side at the
 // knots. For Banded, each column gives its own root, the roots fall as the
 // column rises, and at most one is in its own column; when none is, the
-// answer straddles a column edge and the edge's resistance is returned with
-// onEdge true.
-func (m *Model) ultimate(e, s, lengthM float64) (r float64, onEdge bool, ok bool) {
+// answer straddles the edge above column k, the edge's resistance is
+// returned and edge is k. Otherwise edge is -1.
+func (m *Model) ultimate(e, s, lengthM float64) (r float64, edge int, ok bool) {
 	cpk := m.cpPerKN(lengthM)
 	switch m.Method {
 	case Given:
 		c := m.CcMm + m.CpMm + m.CqMm
 		den := s + c/2
 		if !(den > 0) {
-			return 0, false, false
+			return 0, -1, false
 		}
-		return e / den, false, true
+		return e / den, -1, true
 	case Banded:
 		for k := range 4 {
 			b := s + (m.capColumn(k)+m.CqMm)/2
 			rk, ok := positiveRoot(cpk/2, b, e)
 			if !ok {
-				return 0, false, false
+				return 0, -1, false
 			}
 			if k == 3 || m.stress(rk) < m.categoryEdgeMPa(k) {
-				return rk, false, true
+				return rk, -1, true
 			}
 			// rk wants a harder column. Does column k+1's answer fall back
 			// below the edge? Then the answer straddles the edge.
 			b1 := s + (m.capColumn(k+1)+m.CqMm)/2
 			r1, ok := positiveRoot(cpk/2, b1, e)
 			if !ok {
-				return 0, false, false
+				return 0, -1, false
 			}
 			if m.stress(r1) < m.categoryEdgeMPa(k) {
-				return m.categoryEdgeMPa(k) * m.AreaMm2 / 1000, true, true
+				return m.categoryEdgeMPa(k) * m.AreaMm2 / 1000, k, true
 			}
 		}
 	}
@@ -217,7 +221,7 @@ func (m *Model) ultimate(e, s, lengthM float64) (r float64, onEdge bool, ok bool
 	alpha := a + m.CqMm
 	beta := b*1000/m.AreaMm2 + cpk
 	r, ok = positiveRoot(beta/2, s+alpha/2, e)
-	return r, false, ok
+	return r, -1, ok
 }
 
 // BlowAt solves one blow at a drop, a set per blow and a pile length.
@@ -230,7 +234,7 @@ func (m *Model) BlowAt(dropM, setMm, lengthM float64) (Blow, error) {
 	if !finite(setMm) || setMm < 0 || setMm > 1000 {
 		return Blow{}, &FieldError{Field: "set_mm", Value: formatNum(setMm), Allowed: "0 to 1000 mm per blow", Problem: "is out of range"}
 	}
-	b := Blow{DropM: dropM, LengthM: lengthM, SetMm: setMm, RamKg: m.RamKg, StruckKg: m.StruckMassKg(lengthM)}
+	b := Blow{DropM: dropM, LengthM: lengthM, SetMm: setMm, RamKg: m.RamKg, StruckKg: m.StruckMassKg(lengthM), ColumnEdge: -1}
 	if setMm < m.MinSetMm {
 		b.SetMm, b.Capped = m.MinSetMm, true
 		b.Warnings = append(b.Warnings, Warning{WarnBelowMinSet, fmt.Sprintf(
@@ -240,16 +244,16 @@ func (m *Model) BlowAt(dropM, setMm, lengthM float64) (Blow, error) {
 	b.EnergyKJ = m.energy(dropM) / 1000
 	e := m.energy(dropM) * b.EfficiencyOfBlow
 	b.NetEnergyKJ = e / 1000
-	r, onEdge, ok := m.ultimate(e, b.SetMm, lengthM)
+	r, edge, ok := m.ultimate(e, b.SetMm, lengthM)
 	if !ok {
 		return Blow{}, &FieldError{Field: "set_mm", Value: formatNum(setMm), Allowed: "a set above 0 mm, or a temporary compression above 0 mm", Problem: "gives no finite resistance"}
 	}
+	b.ColumnEdge = edge
 	m.fillBlow(&b, r)
-	if onEdge {
-		k := m.CategoryOf(b.HeadStressMPa) - 1
+	if edge >= 0 {
 		b.Warnings = append(b.Warnings, Warning{WarnBoundary, fmt.Sprintf(
 			"banded: the answer straddles the edge between the %s and %s columns at %.2f MPa; the edge is reported",
-			Categories[max(k, 0)], Categories[min(k+1, 3)], m.categoryEdgeMPa(max(k, 0)))})
+			Categories[edge], Categories[edge+1], m.categoryEdgeMPa(edge))})
 	}
 	return b, nil
 }
@@ -259,14 +263,15 @@ func (m *Model) fillBlow(b *Blow, r float64) {
 	b.UltimateKN = r
 	b.DesignKN = r * m.DesignFactor()
 	b.CcMm, b.CpMm, b.CqMm = m.Compressions(r, b.LengthM)
-	if m.Method == Banded {
-		// On an edge the column below is the one used for Cc.
-		k := m.CategoryOf(m.stress(r) * (1 - 1e-12))
-		b.CcMm = m.capColumn(k)
-	}
-	b.CMm = b.CcMm + b.CpMm + b.CqMm
 	b.HeadStressMPa = m.stress(r)
 	b.Category = m.CategoryOf(b.HeadStressMPa)
+	if b.ColumnEdge >= 0 {
+		// On an edge: the lower column's Cc is reported; no column is
+		// consistent there.
+		b.Category = b.ColumnEdge
+		b.CcMm = m.capColumn(b.ColumnEdge)
+	}
+	b.CMm = b.CcMm + b.CpMm + b.CqMm
 	b.Zone = m.ZoneOf(b.HeadStressMPa)
 	b.ImpactStressMPa = m.ImpactStressMPa(b.DropM)
 	b.LimitMPa = m.DrivingLimitMPa()
