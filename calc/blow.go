@@ -90,9 +90,9 @@ type Blow struct {
 	// straddles the edge between columns k and k+1 (no column is
 	// consistent, and the edge is reported); -1 otherwise.
 	ColumnEdge int
-	Zone          Zone
-	UltimateKN    float64
-	DesignKN      float64
+	Zone       Zone
+	UltimateKN float64
+	DesignKN   float64
 	// ImpactStressMPa is ρ·c·v for a rigid ram striking the bare head: an
 	// upper bound that ignores the cushion.
 	ImpactStressMPa float64

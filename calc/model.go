@@ -120,6 +120,40 @@ var (
 	LimitTextRunes   = 500
 )
 
+// InputRanges maps each numeric field of the project file, by its path,
+// to its allowed range. Zone thresholds and table overrides are included
+// by their key; drops are under "drops_m".
+func InputRanges() map[string]Range {
+	return map[string]Range{
+		"hammer.ram_kg":           LimitRamKg,
+		"hammer.efficiency":       LimitEfficiency,
+		"hammer.restitution":      LimitRestitution,
+		"drops_m":                 LimitDropM,
+		"pile.diameter_mm":        LimitDiameterMm,
+		"pile.side_mm":            LimitDiameterMm,
+		"pile.area_mm2":           LimitAreaMm2,
+		"pile.length_m":           LimitLengthM,
+		"pile.length_max_m":       LimitLengthM,
+		"pile.length_step_m":      LimitLengthStepM,
+		"pile.density_kg_m3":      LimitDensity,
+		"pile.modulus_mpa":        LimitModulusMPa,
+		"pile.mass_kg":            LimitPileMassKg,
+		"pile.mass_fraction":      LimitMassFrac,
+		"pile.strength_mpa":       LimitStrengthMPa,
+		"pile.limit_factor":       LimitLimitFactor,
+		"driven_parts_kg":         LimitPartsKg,
+		"compression.cq_mm":       LimitCqMm,
+		"compression.cc_mm":       LimitCcMm,
+		"compression.cp_mm":       LimitCpMm,
+		"design.load_kn":          LimitLoadKN,
+		"design.phi":              LimitPhi,
+		"design.factor_of_safety": LimitFoS,
+		"zones.easy_below_mpa":    LimitZoneMPa,
+		"zones.hard_from_mpa":     LimitZoneMPa,
+		"min_set_mm_per_blow":     LimitMinSetMm,
+	}
+}
+
 // Range is the allowed range of one input.
 type Range struct {
 	Min, Max float64

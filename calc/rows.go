@@ -3,8 +3,10 @@ package calc
 import "math"
 
 // TableRow is one row of the required-set table as the command's
-// `table -json`, the site's HTML table and its test hook give it. Numbers
-// are rounded for people: sets to 0.01 mm, the rest to 0.001.
+// `table -json`, the site's HTML table, the card and the test hook give it.
+// Sets are rounded down, so that a printed criterion is never larger than
+// the computed one: per blow to 0.01 mm, per 10 blows to 0.1 mm (the same
+// figure ×10). Other numbers are rounded to 0.001.
 type TableRow struct {
 	DropM           float64  `json:"drop_m"`
 	LengthM         float64  `json:"length_m"`
@@ -55,7 +57,14 @@ func roundTo(v float64, places int) float64 {
 }
 
 func r3(v float64) float64 { return roundTo(v, 3) }
-func r2(v float64) float64 { return roundTo(v, 2) }
+
+// FloorTo rounds v down to places decimals, allowing for the binary
+// representation of v (18.1 stays 18.1, not 18.09). Criteria are rounded
+// down so that a printed set is never larger than the computed one.
+func FloorTo(v float64, places int) float64 {
+	p := math.Pow10(places)
+	return math.Floor(v*p+1e-7)/p + 0
+}
 
 func messages(ws []Warning) []string {
 	out := make([]string, len(ws))
@@ -74,7 +83,8 @@ func (q Requirement) Row() TableRow {
 		LimitMPa: r3(q.LimitMPa), Overstressed: q.Overstressed, Warnings: messages(q.Warnings),
 	}
 	if q.HasSet {
-		s, s10 := r2(q.SetMm), r2(q.SetMm10)
+		s := FloorTo(q.SetMm, 2)
+		s10 := FloorTo(q.SetMm10, 1)
 		t.SetMmPerBlow, t.SetMmPer10Blows = &s, &s10
 	}
 	return t
