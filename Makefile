@@ -3,10 +3,13 @@
 GO ?= go
 STATICCHECK ?= $(GO) run honnef.co/go/tools/cmd/staticcheck@v0.8.2
 WASMPATH := $(shell $(GO) env GOROOT)/lib/wasm
+UNIT_PKGS = $$($(GO) list ./... | grep -v /scripts/e2e)
 
-.PHONY: test check unit wasmtest vet serve site bench clean
+.PHONY: test check unit wasmtest e2e serve site bench clean
 
-test: check unit wasmtest
+# Every test: formatting and static checks, the Go tests natively and under
+# WebAssembly, and the browser suite in Chromium.
+test: check unit wasmtest e2e
 
 check:
 	@test -z "$$(gofmt -l .)" || { echo "gofmt needed:"; gofmt -l .; exit 1; }
@@ -14,18 +17,27 @@ check:
 	GOOS=js GOARCH=wasm $(GO) vet ./...
 	$(STATICCHECK) ./...
 	@! $(GO) list -deps ./calc/... | grep -q '\.' || { echo "calc must import only the standard library:"; $(GO) list -deps ./calc/... | grep '\.'; exit 1; }
+	@cmp -s wasm/demo.json testdata/demo.json || { echo "wasm/demo.json differs from testdata/demo.json: cp testdata/demo.json wasm/"; exit 1; }
 
 unit:
-	$(GO) test -count=1 ./...
+	$(GO) test -count=1 $(UNIT_PKGS)
 
 wasmtest:
-	PATH="$$PATH:$(WASMPATH)" GOOS=js GOARCH=wasm $(GO) test -count=1 ./calc/...
+	PATH="$$PATH:$(WASMPATH)" GOOS=js GOARCH=wasm $(GO) test -count=1 ./calc/... ./wasm/session/
+
+# The browser suite: builds the site, serves it on 127.0.0.1 and drives
+# Chromium. It fails, saying how to install it, when Chromium is missing.
+e2e:
+	$(GO) test -count=1 -timeout 40m ./scripts/e2e/
+
+site:
+	$(GO) run ./scripts/build -o dist
+
+serve: site
+	$(GO) run ./scripts/serve -dir dist
 
 bench:
-	$(GO) test -run '^$$' -bench . -benchmem ./calc/...
-
-serve:
-	$(GO) run ./scripts/setcard table testdata/demo.json
+	$(GO) test -run '^$$' -bench . -benchmem ./calc/... ./wasm/session/
 
 clean:
-	rm -rf dist
+	rm -rf dist test-evidence

@@ -35,7 +35,7 @@ func (s *Session) Overlay() []chart.Item {
 		}
 		label := fmt.Sprintf("%s: %s %s", c.Label, formatValue(c), c.Unit)
 		if active {
-			label = "▸ " + label
+			label = "» " + label
 		}
 		items = append(items, s.text(label, chart.Point{X: c.Box.X, Y: c.Box.Y + 18}, 14, active, chart.Start, col, "control-label"))
 		items = append(items, area(c.Track, trackGrey))

@@ -1,0 +1,167 @@
+//go:build js && wasm
+
+package main
+
+import (
+	"time"
+
+	"github.com/hajimehoshi/ebiten/v2"
+	"github.com/hajimehoshi/ebiten/v2/inpututil"
+
+	"setcard/wasm/session"
+)
+
+// game is the Ebiten game: input and state in Update, drawing in Draw.
+type game struct {
+	s       *session.Session
+	p       *painter
+	scale   float64 // device pixels per CSS pixel
+	static  *ebiten.Image
+	drawn   *chartKey // what static holds
+	touches []ebiten.TouchID
+	touchID ebiten.TouchID
+	touchOn bool
+	lastX   int
+	lastY   int
+
+	changed func() // called in Update when a control changed the project
+	first   func() // called after the first frame is drawn
+	frames  int
+	t       *timings
+}
+
+type chartKey struct {
+	layout any
+	w, h   int
+}
+
+func (g *game) Update() error {
+	start := time.Now()
+	defer func() { g.t.update.add(time.Since(start)) }()
+
+	s := g.s
+	changed := false
+	sc := g.scale
+	// Mouse.
+	mx, my := ebiten.CursorPosition()
+	x, y := float64(mx)/sc, float64(my)/sc
+	switch {
+	case inpututil.IsMouseButtonJustPressed(ebiten.MouseButtonLeft):
+		s.Press(x, y)
+	case inpututil.IsMouseButtonJustReleased(ebiten.MouseButtonLeft):
+		s.Release()
+	case ebiten.IsMouseButtonPressed(ebiten.MouseButtonLeft):
+		changed = s.Move(x, y) || changed
+	}
+	if mx != g.lastX || my != g.lastY {
+		g.lastX, g.lastY = mx, my
+		if s.Dragging() < 0 {
+			s.Hover(x, y)
+		}
+	}
+	// Touch: the first finger acts as the mouse.
+	g.touches = inpututil.AppendJustPressedTouchIDs(g.touches[:0])
+	if len(g.touches) > 0 && !g.touchOn {
+		g.touchID, g.touchOn = g.touches[0], true
+		tx, ty := ebiten.TouchPosition(g.touchID)
+		s.Press(float64(tx)/sc, float64(ty)/sc)
+		s.Hover(float64(tx)/sc, float64(ty)/sc)
+	} else if g.touchOn {
+		if inpututil.IsTouchJustReleased(g.touchID) {
+			g.touchOn = false
+			s.Release()
+		} else {
+			tx, ty := ebiten.TouchPosition(g.touchID)
+			changed = s.Move(float64(tx)/sc, float64(ty)/sc) || changed
+			if s.Dragging() < 0 {
+				s.Hover(float64(tx)/sc, float64(ty)/sc)
+			}
+		}
+	}
+	// Keyboard.
+	shift := ebiten.IsKeyPressed(ebiten.KeyShift)
+	if repeat(ebiten.KeyTab) {
+		if shift {
+			s.Key(session.KeyPrev)
+		} else {
+			s.Key(session.KeyNext)
+		}
+	}
+	for _, k := range []struct {
+		key       ebiten.Key
+		step, big session.Key
+	}{
+		{ebiten.KeyArrowRight, session.KeyUp, session.KeyBigUp},
+		{ebiten.KeyArrowUp, session.KeyUp, session.KeyBigUp},
+		{ebiten.KeyArrowLeft, session.KeyDown, session.KeyBigDown},
+		{ebiten.KeyArrowDown, session.KeyDown, session.KeyBigDown},
+		{ebiten.KeyPageUp, session.KeyBigUp, session.KeyBigUp},
+		{ebiten.KeyPageDown, session.KeyBigDown, session.KeyBigDown},
+		{ebiten.KeyHome, session.KeyMin, session.KeyMin},
+		{ebiten.KeyEnd, session.KeyMax, session.KeyMax},
+	} {
+		if repeat(k.key) {
+			if shift {
+				changed = s.Key(k.big) || changed
+			} else {
+				changed = s.Key(k.step) || changed
+			}
+		}
+	}
+	if inpututil.IsKeyJustPressed(ebiten.KeyEscape) {
+		leaveCanvas()
+	}
+	// Recompute here, in Update, so Draw only draws.
+	t0 := time.Now()
+	if s.Recompute() {
+		g.t.recompute.add(time.Since(t0))
+	}
+	if changed && g.changed != nil {
+		g.changed()
+	}
+	return nil
+}
+
+// repeat reports a key press and its auto-repeat.
+func repeat(k ebiten.Key) bool {
+	d := inpututil.KeyPressDuration(k)
+	return d == 1 || d > 24 && d%4 == 0
+}
+
+func (g *game) Draw(screen *ebiten.Image) {
+	start := time.Now()
+	layout := g.s.Chart()
+	w, h := screen.Bounds().Dx(), screen.Bounds().Dy()
+	key := &chartKey{layout, w, h}
+	if g.static == nil || g.drawn == nil || *g.drawn != *key {
+		if g.static == nil || g.static.Bounds().Dx() != w || g.static.Bounds().Dy() != h {
+			if g.static != nil {
+				g.static.Deallocate()
+			}
+			g.static = ebiten.NewImage(w, h)
+		}
+		g.static.Fill(paperWhite)
+		g.p.draw(g.static, layout.Items, g.scale)
+		g.drawn = key
+	}
+	screen.DrawImage(g.static, nil)
+	g.p.draw(screen, g.s.Overlay(), g.scale)
+	g.t.draw.add(time.Since(start))
+	g.frames++
+	if g.frames == 1 && g.first != nil {
+		g.first()
+	}
+}
+
+func (g *game) Layout(outsideW, outsideH int) (int, int) {
+	panic("setcard: LayoutF is used")
+}
+
+func (g *game) LayoutF(outsideW, outsideH float64) (float64, float64) {
+	g.scale = ebiten.Monitor().DeviceScaleFactor()
+	if g.scale <= 0 {
+		g.scale = 1
+	}
+	g.s.Resize(outsideW, outsideH)
+	return outsideW * g.scale, outsideH * g.scale
+}
