@@ -26,8 +26,8 @@ import (
 // 70 kB to the compressed program).
 type painter struct {
 	regular *opentype.Font
-	mu            sync.Mutex
-	faces         map[faceKey]*text.GoXFace
+	mu      sync.Mutex
+	faces   map[faceKey]*text.GoXFace
 
 	white *ebiten.Image
 	vs    []ebiten.Vertex
