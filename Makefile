@@ -1,7 +1,7 @@
 # Setcard. `make serve` builds the site and serves it with the demo project;
 # `make test` runs every test the project has.
 GO ?= go
-STATICCHECK ?= $(GO) run honnef.co/go/tools/cmd/staticcheck@v0.8.2
+STATICCHECK := $(CURDIR)/.cache/bin/staticcheck
 WASMPATH := $(shell $(GO) env GOROOT)/lib/wasm
 UNIT_PKGS = $$($(GO) list ./... | grep -v /scripts/e2e)
 
@@ -15,7 +15,9 @@ check:
 	@test -z "$$(gofmt -l .)" || { echo "gofmt needed:"; gofmt -l .; exit 1; }
 	$(GO) vet ./...
 	GOOS=js GOARCH=wasm $(GO) vet ./...
+	GOBIN=$(CURDIR)/.cache/bin $(GO) install honnef.co/go/tools/cmd/staticcheck@v0.8.2
 	$(STATICCHECK) ./...
+	GOOS=js GOARCH=wasm $(STATICCHECK) ./wasm/...
 	@! $(GO) list -deps ./calc/... | grep -q '\.' || { echo "calc must import only the standard library:"; $(GO) list -deps ./calc/... | grep '\.'; exit 1; }
 	@cmp -s wasm/demo.json testdata/demo.json || { echo "wasm/demo.json differs from testdata/demo.json: cp testdata/demo.json wasm/"; exit 1; }
 

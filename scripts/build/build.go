@@ -14,7 +14,6 @@ import (
 	"os/exec"
 	"path"
 	"path/filepath"
-	"runtime"
 	"sort"
 	"strings"
 )
@@ -321,30 +320,15 @@ func GoCompileWasm(ctx context.Context, opts Options, out string) error {
 	return nil
 }
 
-// goTool is the go command of the toolchain running this program when it
-// can be found, else the one on PATH.
-func goTool() string {
-	name := "go"
-	if runtime.GOOS == "windows" {
-		name = "go.exe"
-	}
-	if root := runtime.GOROOT(); root != "" {
-		p := filepath.Join(root, "bin", name)
-		if _, err := os.Stat(p); err == nil {
-			return p
-		}
-	}
-	return "go"
-}
+// goTool is the go command on PATH.
+func goTool() string { return "go" }
 
-// goRoot asks `go env GOROOT`, falling back to runtime.GOROOT.
+// goRoot asks `go env GOROOT`.
 func goRoot() string {
 	if out, err := exec.Command("go", "env", "GOROOT").Output(); err == nil {
-		if root := strings.TrimSpace(string(out)); root != "" {
-			return root
-		}
+		return strings.TrimSpace(string(out))
 	}
-	return runtime.GOROOT()
+	return ""
 }
 
 // readWasmExec reads wasm_exec.js from path, or from GOROOT when path is
