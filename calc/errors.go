@@ -1,7 +1,6 @@
 package calc
 
 import (
-	"fmt"
 	"strconv"
 	"strings"
 )
@@ -69,24 +68,29 @@ func (c *errs) add(field, value, allowed, problem string) {
 	c.list = append(c.list, &FieldError{Field: field, Value: value, Allowed: allowed, Problem: problem})
 }
 
-// rng checks lo ≤ v ≤ hi and that v is finite.
+// rng checks lo ≤ v ≤ hi and that v is finite. The message is built only
+// when the check fails: formatting is slow under WebAssembly, and this runs
+// for every field of every project a drag produces.
 func (c *errs) rng(field string, v, lo, hi float64, unit string) bool {
-	allowed := fmt.Sprintf("%s to %s%s", formatNum(lo), formatNum(hi), unitSuffix(unit))
-	if !finite(v) {
-		c.add(field, formatNum(v), allowed, "is not a finite number")
+	switch {
+	case !finite(v):
+		c.add(field, formatNum(v), allowedRange(lo, hi, unit), "is not a finite number")
 		return false
-	}
-	if v < lo || v > hi {
-		c.add(field, formatNum(v), allowed, "is out of range")
+	case v < lo || v > hi:
+		c.add(field, formatNum(v), allowedRange(lo, hi, unit), "is out of range")
 		return false
 	}
 	return true
 }
 
+func allowedRange(lo, hi float64, unit string) string {
+	return formatNum(lo) + " to " + formatNum(hi) + unitSuffix(unit)
+}
+
 // need reports a missing required number.
 func (c *errs) need(field string, p *float64, lo, hi float64, unit string) (float64, bool) {
 	if p == nil {
-		c.add(field, "", fmt.Sprintf("%s to %s%s", formatNum(lo), formatNum(hi), unitSuffix(unit)), "is required")
+		c.add(field, "", allowedRange(lo, hi, unit), "is required")
 		return 0, false
 	}
 	return *p, c.rng(field, *p, lo, hi, unit)

@@ -5,6 +5,7 @@ import (
 	"math"
 	"strconv"
 	"strings"
+	"unicode/utf8"
 )
 
 // Method is how the temporary compressions are found.
@@ -160,9 +161,7 @@ type Range struct {
 	Unit     string
 }
 
-func (r Range) String() string {
-	return fmt.Sprintf("%s to %s%s", formatNum(r.Min), formatNum(r.Max), unitSuffix(r.Unit))
-}
+func (r Range) String() string { return allowedRange(r.Min, r.Max, r.Unit) }
 
 func (c *errs) in(field string, p *float64, r Range) (float64, bool) {
 	return c.need(field, p, r.Min, r.Max, r.Unit)
@@ -173,7 +172,7 @@ func (c *errs) optIn(field string, p *float64, def float64, r Range) float64 {
 }
 
 func (c *errs) text(field, s string, maxRunes int) string {
-	if n := len([]rune(s)); n > maxRunes {
+	if n := utf8.RuneCountInString(s); n > maxRunes {
 		c.add(field, strconv.Quote(string([]rune(s)[:20])+"…"), fmt.Sprintf("at most %d characters", maxRunes), "is too long")
 		return ""
 	}
@@ -209,7 +208,7 @@ func Resolve(p *Project) (*Model, error) {
 		m.EfficiencyFrom = "project"
 	} else {
 		m.Efficiency = m.HammerType.Efficiency
-		m.EfficiencyFrom = fmt.Sprintf("%s [%s]", m.HammerType.Source, m.HammerType.Mark)
+		m.EfficiencyFrom = m.HammerType.Source + " [" + string(m.HammerType.Mark) + "]"
 	}
 
 	// Pile material first: it gives defaults.
@@ -227,13 +226,13 @@ func Resolve(p *Project) (*Model, error) {
 	case p.Hammer.Contact != "":
 		if ct, ok := ContactByID(p.Hammer.Contact); ok {
 			m.Restitution = ct.Restitution
-			m.RestitutionFrom = fmt.Sprintf("%s: %s [%s]", ct.Label, ct.Source, ct.Mark)
+			m.RestitutionFrom = ct.Label + ": " + ct.Source + " [" + string(ct.Mark) + "]"
 		} else {
 			c.add("hammer.contact", strconv.Quote(p.Hammer.Contact), choices(contactIDs()), "is not a contact of the restitution table")
 		}
 	default:
 		m.Restitution = mat.Restitution
-		m.RestitutionFrom = fmt.Sprintf("default for %s: %s", mat.ID, restitutionSource(mat.Restitution))
+		m.RestitutionFrom = "default for " + mat.ID + ": " + restitutionSource(mat.Restitution)
 	}
 	if p.Hammer.Restitution != nil && p.Hammer.Contact != "" {
 		c.add("hammer.contact", strconv.Quote(p.Hammer.Contact), "either restitution or contact", "is given with hammer.restitution")
@@ -246,7 +245,7 @@ func Resolve(p *Project) (*Model, error) {
 		c.add("drops_m", fmt.Sprintf("%d drops", len(p.DropsM)), fmt.Sprintf("1 to %d drops", LimitDrops), "has too many drops")
 	} else {
 		for i, h := range p.DropsM {
-			f := fmt.Sprintf("drops_m[%d]", i)
+			f := "drops_m[" + strconv.Itoa(i) + "]"
 			if c.rng(f, h, LimitDropM.Min, LimitDropM.Max, LimitDropM.Unit) {
 				for _, prev := range m.DropsM {
 					if prev == h {
@@ -365,7 +364,7 @@ func Resolve(p *Project) (*Model, error) {
 		}
 		seen := map[string]bool{}
 		for i, id := range p.Compression.Cap {
-			f := fmt.Sprintf("compression.cap[%d]", i)
+			f := "compression.cap[" + strconv.Itoa(i) + "]"
 			row, ok := CapRowByID(id)
 			switch {
 			case !ok:
@@ -511,7 +510,7 @@ func contactIDs() []string {
 func restitutionSource(e float64) string {
 	for _, ct := range Contacts {
 		if ct.Restitution == e {
-			return fmt.Sprintf("%s, %s [%s]", ct.Label, ct.Source, ct.Mark)
+			return ct.Label + ", " + ct.Source + " [" + string(ct.Mark) + "]"
 		}
 	}
 	return "material default"

@@ -295,15 +295,52 @@ func (p *Project) Encode(w io.Writer) error {
 
 // Clone returns a deep copy of p.
 func (p *Project) Clone() *Project {
-	b, err := json.Marshal(p)
-	if err != nil {
-		panic("calc: project does not marshal: " + err.Error())
+	q := *p
+	q.Hammer.RamKg = cp(p.Hammer.RamKg)
+	q.Hammer.Efficiency = cp(p.Hammer.Efficiency)
+	q.Hammer.Restitution = cp(p.Hammer.Restitution)
+	q.DropsM = slices.Clone(p.DropsM)
+	pl := &q.Pile
+	for _, f := range []**float64{&pl.DiameterMm, &pl.SideMm, &pl.AreaMm2, &pl.LengthM, &pl.LengthMaxM, &pl.LengthStepM,
+		&pl.DensityKgM3, &pl.ModulusMPa, &pl.MassKg, &pl.MassFraction, &pl.StrengthMPa, &pl.LimitFactor} {
+		*f = cp(*f)
 	}
-	var q Project
-	if err := json.Unmarshal(b, &q); err != nil {
-		panic("calc: project does not round-trip: " + err.Error())
+	q.DrivenPartsKg = cp(p.DrivenPartsKg)
+	q.Compression.Cap = slices.Clone(p.Compression.Cap)
+	q.Compression.CqMm = cp(p.Compression.CqMm)
+	q.Compression.CcMm = cp(p.Compression.CcMm)
+	q.Compression.CpMm = cp(p.Compression.CpMm)
+	q.Design.LoadKN = cp(p.Design.LoadKN)
+	q.Design.Phi = cp(p.Design.Phi)
+	q.Design.FactorOfSafety = cp(p.Design.FactorOfSafety)
+	q.MinSetMm = cp(p.MinSetMm)
+	if p.Zones != nil {
+		z := Zones{EasyBelowMPa: cp(p.Zones.EasyBelowMPa), HardFromMPa: cp(p.Zones.HardFromMPa)}
+		q.Zones = &z
+	}
+	if p.Tables != nil {
+		t := Tables{CategoryStressMPa: slices.Clone(p.Tables.CategoryStressMPa)}
+		if p.Tables.CapRowsMm != nil {
+			t.CapRowsMm = make(map[string][]float64, len(p.Tables.CapRowsMm))
+			for k, v := range p.Tables.CapRowsMm {
+				t.CapRowsMm[k] = slices.Clone(v)
+			}
+		}
+		q.Tables = &t
+	}
+	if p.Card != nil {
+		c := *p.Card
+		q.Card = &c
 	}
 	return &q
+}
+
+func cp(v *float64) *float64 {
+	if v == nil {
+		return nil
+	}
+	w := *v
+	return &w
 }
 
 // F returns a pointer to v, for filling optional fields.

@@ -24,11 +24,19 @@ type game struct {
 	lastX   int
 	lastY   int
 
-	changed func() // called in Update when a control changed the project
+	changed func() // tells the page that a control changed the project
 	first   func() // called after the first frame is drawn
 	frames  int
 	t       *timings
+
+	// The page is told of a change at most every notifyEvery while a
+	// control is dragged, and at once when the drag ends: its table and
+	// autosave need not run at the frame rate.
+	pending    bool
+	lastNotify time.Time
 }
+
+const notifyEvery = 150 * time.Millisecond
 
 type chartKey struct {
 	layout any
@@ -116,7 +124,9 @@ func (g *game) Update() error {
 	if s.Recompute() {
 		g.t.recompute.add(time.Since(t0))
 	}
-	if changed && g.changed != nil {
+	g.pending = g.pending || changed
+	if g.pending && g.changed != nil && (s.Dragging() < 0 || time.Since(g.lastNotify) >= notifyEvery) {
+		g.pending, g.lastNotify = false, time.Now()
 		g.changed()
 	}
 	return nil

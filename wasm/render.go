@@ -85,12 +85,17 @@ func (p *painter) draw(dst *ebiten.Image, items []chart.Item, scale float64) {
 	for i := range items {
 		it := &items[i]
 		switch it.Kind {
-		case chart.Line, chart.Polyline:
-			p.stroke(dst, it.Points, it.Width*scale, it.Stroke, it.Dash, scale, false)
+		case chart.Line:
+			// Single segments (grid, ticks, hatching) are drawn without
+			// anti-aliasing: under a software renderer it costs a pass
+			// per call, and hatching has well over a hundred of them.
+			p.stroke(dst, it.Points, it.Width*scale, it.Stroke, it.Dash, scale, false, false)
+		case chart.Polyline:
+			p.stroke(dst, it.Points, it.Width*scale, it.Stroke, it.Dash, scale, false, !straight(it.Points))
 		case chart.Area:
 			p.fill(dst, it.Points, it.Fill, scale)
 			if it.Width > 0 {
-				p.stroke(dst, it.Points, it.Width*scale, it.Stroke, nil, scale, true)
+				p.stroke(dst, it.Points, it.Width*scale, it.Stroke, nil, scale, true, !straight(it.Points))
 			}
 		case chart.Text:
 			p.text(dst, it, scale)
@@ -99,7 +104,7 @@ func (p *painter) draw(dst *ebiten.Image, items []chart.Item, scale float64) {
 }
 
 // stroke draws one path as one DrawTriangles call, dashed when asked.
-func (p *painter) stroke(dst *ebiten.Image, pts []chart.Point, width float64, c color.RGBA, dash []float64, scale float64, closed bool) {
+func (p *painter) stroke(dst *ebiten.Image, pts []chart.Point, width float64, c color.RGBA, dash []float64, scale float64, closed, antialias bool) {
 	if len(pts) < 2 || width <= 0 || c.A == 0 {
 		return
 	}
@@ -116,7 +121,7 @@ func (p *painter) stroke(dst *ebiten.Image, pts []chart.Point, width float64, c 
 		}
 	}
 	p.vs, p.is = path.AppendVerticesAndIndicesForStroke(p.vs[:0], p.is[:0], &vector.StrokeOptions{Width: float32(width), LineJoin: vector.LineJoinRound, LineCap: vector.LineCapButt})
-	p.triangles(dst, c, ebiten.FillRuleFillAll)
+	p.triangles(dst, c, ebiten.FillRuleFillAll, antialias)
 }
 
 // dashed adds the on-segments of a dash pattern along a polyline.
@@ -156,17 +161,29 @@ func (p *painter) fill(dst *ebiten.Image, pts []chart.Point, c color.RGBA, scale
 	}
 	path.Close()
 	p.vs, p.is = path.AppendVerticesAndIndicesForFilling(p.vs[:0], p.is[:0])
-	p.triangles(dst, c, ebiten.FillRuleNonZero)
+	p.triangles(dst, c, ebiten.FillRuleNonZero, !straight(pts))
 }
 
-func (p *painter) triangles(dst *ebiten.Image, c color.RGBA, rule ebiten.FillRule) {
+// straight reports whether every edge of a path is horizontal or vertical:
+// such paths (grid, ticks, bands, hatch frames) need no anti-aliasing, which
+// costs an extra pass under a software renderer.
+func straight(pts []chart.Point) bool {
+	for i := 1; i < len(pts); i++ {
+		if pts[i].X != pts[i-1].X && pts[i].Y != pts[i-1].Y {
+			return false
+		}
+	}
+	return true
+}
+
+func (p *painter) triangles(dst *ebiten.Image, c color.RGBA, rule ebiten.FillRule, antialias bool) {
 	r, g, b, a := float32(c.R)/255, float32(c.G)/255, float32(c.B)/255, float32(c.A)/255
 	for i := range p.vs {
 		p.vs[i].SrcX, p.vs[i].SrcY = 1.5, 1.5
 		// Straight alpha: DrawTrianglesOptions' default colour-scale mode.
 		p.vs[i].ColorR, p.vs[i].ColorG, p.vs[i].ColorB, p.vs[i].ColorA = r, g, b, a
 	}
-	op := &ebiten.DrawTrianglesOptions{FillRule: rule, AntiAlias: true}
+	op := &ebiten.DrawTrianglesOptions{FillRule: rule, AntiAlias: antialias}
 	dst.DrawTriangles(p.vs, p.is, p.white, op)
 }
 

@@ -86,7 +86,7 @@ func governing(m *calc.Model) []dropData {
 // model must come from calc.Resolve.
 func Chart(m *calc.Model, o ChartOptions) *Layout {
 	o.defaults()
-	b := &builder{measure: o.Measure}
+	b := &builder{measure: o.Measure, items: make([]Item, 0, 320), boxes: make([]Rect, 0, 128)}
 	b.rect(Rect{0, 0, o.W, o.H}, White, 0, White, "background")
 	p := chartInto(b, m, o, governing(m))
 	return &Layout{W: o.W, H: o.H, Unit: o.Unit, Title: Clean(m.Name), Items: b.items, Plot: p}

@@ -60,7 +60,8 @@ func clipPolyline(pts []Point, r Rect) [][]Point {
 		}
 		if len(cur) == 0 || cur[len(cur)-1] != a {
 			flush()
-			cur = []Point{a}
+			cur = make([]Point, 1, len(pts)-i+1)
+			cur[0] = a
 		}
 		cur = append(cur, b)
 	}
