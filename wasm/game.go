@@ -34,9 +34,18 @@ type game struct {
 	// autosave need not run at the frame rate.
 	pending    bool
 	lastNotify time.Time
+
+	// shown is what the screen holds: with the screen not cleared every
+	// frame, a frame with nothing new draws nothing, and Ebiten skips it.
+	shown frameKey
 }
 
 const notifyEvery = 150 * time.Millisecond
+
+type frameKey struct {
+	version int
+	w, h    int
+}
 
 type chartKey struct {
 	layout any
@@ -139,9 +148,13 @@ func repeat(k ebiten.Key) bool {
 }
 
 func (g *game) Draw(screen *ebiten.Image) {
+	w, h := screen.Bounds().Dx(), screen.Bounds().Dy()
+	now := frameKey{g.s.Version, w, h}
+	if now == g.shown {
+		return
+	}
 	start := time.Now()
 	layout := g.s.Chart()
-	w, h := screen.Bounds().Dx(), screen.Bounds().Dy()
 	key := &chartKey{layout, w, h}
 	if g.static == nil || g.drawn == nil || *g.drawn != *key {
 		if g.static == nil || g.static.Bounds().Dx() != w || g.static.Bounds().Dy() != h {
@@ -156,6 +169,7 @@ func (g *game) Draw(screen *ebiten.Image) {
 	}
 	screen.DrawImage(g.static, nil)
 	g.p.draw(screen, g.s.Overlay(), g.scale)
+	g.shown = now
 	g.t.draw.add(time.Since(start))
 	g.frames++
 	if g.frames == 1 && g.first != nil {

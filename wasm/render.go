@@ -6,6 +6,7 @@ import (
 	"image"
 	"image/color"
 	"math"
+	"slices"
 	"sync"
 
 	"github.com/hajimehoshi/ebiten/v2"
@@ -80,22 +81,33 @@ func (p *painter) measure(s string, size float64, bold bool) float64 {
 	return w
 }
 
-// draw draws items scaled by scale onto dst.
+// draw draws items scaled by scale onto dst. Consecutive single segments
+// of one style (grid lines, ticks, hatching) go into one path and so one
+// DrawTriangles call; every other item is one call of its own.
 func (p *painter) draw(dst *ebiten.Image, items []chart.Item, scale float64) {
-	for i := range items {
+	for i := 0; i < len(items); i++ {
 		it := &items[i]
 		switch it.Kind {
 		case chart.Line:
-			// Single segments (grid, ticks, hatching) are drawn without
-			// anti-aliasing: under a software renderer it costs a pass
-			// per call, and hatching has well over a hundred of them.
-			p.stroke(dst, it.Points, it.Width*scale, it.Stroke, it.Dash, scale, false, false)
+			var path vector.Path
+			j := i
+			for ; j < len(items) && sameLineStyle(&items[j], it); j++ {
+				addPath(&path, items[j].Points, it.Dash, scale, false)
+			}
+			i = j - 1
+			// Segments are drawn without anti-aliasing: under a software
+			// renderer it costs a pass, and they are mostly straight.
+			p.strokePath(dst, &path, it.Width*scale, it.Stroke, false)
 		case chart.Polyline:
-			p.stroke(dst, it.Points, it.Width*scale, it.Stroke, it.Dash, scale, false, !straight(it.Points))
+			var path vector.Path
+			addPath(&path, it.Points, it.Dash, scale, false)
+			p.strokePath(dst, &path, it.Width*scale, it.Stroke, !straight(it.Points))
 		case chart.Area:
 			p.fill(dst, it.Points, it.Fill, scale)
 			if it.Width > 0 {
-				p.stroke(dst, it.Points, it.Width*scale, it.Stroke, nil, scale, true, !straight(it.Points))
+				var path vector.Path
+				addPath(&path, it.Points, nil, scale, true)
+				p.strokePath(dst, &path, it.Width*scale, it.Stroke, !straight(it.Points))
 			}
 		case chart.Text:
 			p.text(dst, it, scale)
@@ -103,24 +115,37 @@ func (p *painter) draw(dst *ebiten.Image, items []chart.Item, scale float64) {
 	}
 }
 
-// stroke draws one path as one DrawTriangles call, dashed when asked.
-func (p *painter) stroke(dst *ebiten.Image, pts []chart.Point, width float64, c color.RGBA, dash []float64, scale float64, closed, antialias bool) {
-	if len(pts) < 2 || width <= 0 || c.A == 0 {
+func sameLineStyle(a, b *chart.Item) bool {
+	return a.Kind == chart.Line && a.Stroke == b.Stroke && a.Width == b.Width && slices.Equal(a.Dash, b.Dash)
+}
+
+// addPath adds a polyline, dashed when asked, to a path.
+func addPath(path *vector.Path, pts []chart.Point, dash []float64, scale float64, closed bool) {
+	if len(pts) < 2 {
 		return
 	}
-	var path vector.Path
 	if len(dash) >= 2 {
-		dashed(&path, pts, dash, scale)
-	} else {
-		path.MoveTo(float32(pts[0].X*scale), float32(pts[0].Y*scale))
-		for _, q := range pts[1:] {
-			path.LineTo(float32(q.X*scale), float32(q.Y*scale))
-		}
-		if closed {
-			path.Close()
-		}
+		dashed(path, pts, dash, scale)
+		return
+	}
+	path.MoveTo(float32(pts[0].X*scale), float32(pts[0].Y*scale))
+	for _, q := range pts[1:] {
+		path.LineTo(float32(q.X*scale), float32(q.Y*scale))
+	}
+	if closed {
+		path.Close()
+	}
+}
+
+// strokePath strokes a path as one DrawTriangles call.
+func (p *painter) strokePath(dst *ebiten.Image, path *vector.Path, width float64, c color.RGBA, antialias bool) {
+	if width <= 0 || c.A == 0 {
+		return
 	}
 	p.vs, p.is = path.AppendVerticesAndIndicesForStroke(p.vs[:0], p.is[:0], &vector.StrokeOptions{Width: float32(width), LineJoin: vector.LineJoinRound, LineCap: vector.LineCapButt})
+	if len(p.is) == 0 {
+		return
+	}
 	p.triangles(dst, c, ebiten.FillRuleFillAll, antialias)
 }
 

@@ -63,9 +63,7 @@ func setup(m *testing.M) int {
 			return 1
 		}
 	}
-	if d := os.Getenv("TMPHACK_DIST"); d != "" { // TMPHACK
-		distDir = d // TMPHACK
-	} else if err := buildSite(distDir, filepath.Join(root, "site")); err != nil {
+	if err := buildSite(distDir, filepath.Join(root, "site")); err != nil {
 		fmt.Fprintln(os.Stderr, "e2e:", err)
 		return 1
 	}
@@ -103,7 +101,7 @@ type server struct {
 
 // serve starts scripts/serve on dir, on 127.0.0.1 and a port the system
 // picks (or addr, to restart on the same port).
-func serve(t *testing.T, dir, addr string) *server {
+func serve(t testing.TB, dir, addr string) *server {
 	t.Helper()
 	if addr == "" {
 		addr = "127.0.0.1:0"
@@ -164,7 +162,7 @@ func (s *server) Addr() string {
 // browser is one headless Chromium with a fresh profile, and what its
 // pages said.
 type browser struct {
-	t        *testing.T
+	t        testing.TB
 	ctx      context.Context
 	cancel   context.CancelFunc
 	mu       sync.Mutex
@@ -174,7 +172,7 @@ type browser struct {
 
 // newBrowser starts Chromium with the flags DEVELOPERS.md lists and a
 // viewport of w × h CSS px.
-func newBrowser(t *testing.T, w, h int) *browser {
+func newBrowser(t testing.TB, w, h int) *browser {
 	t.Helper()
 	profile := t.TempDir()
 	opts := []chromedp.ExecAllocatorOption{
