@@ -170,9 +170,9 @@ type browser struct {
 	requests []string
 }
 
-// newBrowser starts Chromium with the flags DEVELOPERS.md lists and a
-// viewport of w × h CSS px.
-func newBrowser(t testing.TB, w, h int) *browser {
+// newBrowser starts Chromium with the flags DEVELOPERS.md lists, any extra
+// options, and a viewport of w × h CSS px.
+func newBrowser(t testing.TB, w, h int, extra ...chromedp.ExecAllocatorOption) *browser {
 	t.Helper()
 	profile := t.TempDir()
 	opts := []chromedp.ExecAllocatorOption{
@@ -191,6 +191,7 @@ func newBrowser(t testing.TB, w, h int) *browser {
 		chromedp.Flag("disable-dev-shm-usage", true),
 		chromedp.WindowSize(w, h),
 	}
+	opts = append(opts, extra...)
 	actx, acancel := chromedp.NewExecAllocator(context.Background(), opts...)
 	b := &browser{t: t}
 	ctx, cancel := chromedp.NewContext(actx, chromedp.WithListener(b.listen))
@@ -249,8 +250,8 @@ func (b *browser) evidence() {
 	}
 	ctx, cancel := context.WithTimeout(b.ctx, 10*time.Second)
 	defer cancel()
-	if png, err := chromedp.Run(ctx, chromedp.FullScreenshot(90)); err == nil {
-		_ = os.WriteFile(filepath.Join(dir, "screenshot.jpg"), png, 0o644)
+	if png, err := chromedp.Run(ctx, chromedp.FullScreenshot(100)); err == nil {
+		_ = os.WriteFile(filepath.Join(dir, "screenshot.png"), png, 0o644)
 	}
 	b.mu.Lock()
 	text := strings.Join(b.console, "\n") + "\n\nrequests:\n" + strings.Join(b.requests, "\n") + "\n"

@@ -11,12 +11,14 @@ import (
 	"image/png"
 	"os"
 	"path/filepath"
+	"strconv"
 	"testing"
 	"time"
 
 	"github.com/chromedp/cdproto/cdp"
 	"github.com/chromedp/cdproto/input"
 	"github.com/chromedp/chromedp"
+	"github.com/chromedp/chromedp/kb"
 
 	"setcard/calc"
 )
@@ -233,4 +235,25 @@ func (b *browser) touchDrag(x0, y0, x1, y1 float64) {
 	}
 	steps = append(steps, touch(input.DispatchTouchEventTypeTouchEnd))
 	b.do("touch drag", steps...)
+}
+
+// formatSet writes a set per 10 blows as the page and the card print it.
+func formatSet(v float64) string { return strconv.FormatFloat(v, 'f', 1, 64) }
+
+// jsString quotes s as a JavaScript string literal.
+func jsString(s string) string {
+	b, _ := json.Marshal(s)
+	return string(b)
+}
+
+// typeValue replaces the text of the input with the given id by typing, as a
+// user would: focus, select all, type.
+func (b *browser) typeValue(id, text string) {
+	b.t.Helper()
+	eval[bool](b, `(() => { const e = document.getElementById(`+jsString(id)+`); e.focus(); e.select(); return true; })()`)
+	if text == "" {
+		b.do("clearing #"+id, chromedp.KeyEvent(kb.Delete))
+		return
+	}
+	b.do("typing into #"+id, chromedp.KeyEvent(text))
 }
