@@ -232,7 +232,8 @@ func (p *painter) text(dst *ebiten.Image, it *chart.Item, scale float64) {
 	op.ColorScale.ScaleWithColor(it.Fill)
 	text.Draw(dst, it.Text, f, op)
 	if it.Bold {
-		d := boldOffset * it.Size * scale
+		// A whole device pixel: a fractional offset blurs the glyphs.
+		d := math.Max(1, math.Round(boldOffset*it.Size*scale))
 		if it.Vertical {
 			op.GeoM.Translate(0, -d)
 		} else {
