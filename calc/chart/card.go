@@ -74,7 +74,7 @@ func Card(m *calc.Model, o CardOptions) *Layout {
 	page := Rect{0, 0, w, h}
 	b.rect(page, White, 0, White, "background")
 	c := Rect{cardMargin, cardMargin, w - 2*cardMargin, h - 2*cardMargin}
-	drops := governing(m)
+	drops := governing(m, 0)
 
 	// Header: what the card is, the project, and its reference boxes.
 	const headH = 14.0

@@ -24,6 +24,10 @@ type ChartOptions struct {
 	Ultimate bool
 	// Measure is the width of text (default SansMeasure).
 	Measure Measure
+	// CurvePoints is the number of points per curve (default 200, as
+	// calc.CurveOptions). A screen chart redrawn while a control is dragged
+	// may take fewer.
+	CurvePoints int
 }
 
 func (o *ChartOptions) defaults() {
@@ -49,7 +53,7 @@ type dropData struct {
 
 // governing returns, for each drop of the model in order, the
 // requirement of the length that governs and the curve at that length.
-func governing(m *calc.Model) []dropData {
+func governing(m *calc.Model, points int) []dropData {
 	out := make([]dropData, len(m.DropsM))
 	for _, q := range m.Table() {
 		if q.Governs {
@@ -63,7 +67,7 @@ func governing(m *calc.Model) []dropData {
 		l := out[i].req.LengthM
 		cs, ok := done[l]
 		if !ok {
-			cs = m.Curves(calc.CurveOptions{LengthM: l})
+			cs = m.Curves(calc.CurveOptions{LengthM: l, Points: points})
 			done[l] = cs
 		}
 		out[i].curve = cs[i]
@@ -88,7 +92,7 @@ func Chart(m *calc.Model, o ChartOptions) *Layout {
 	o.defaults()
 	b := &builder{measure: o.Measure, items: make([]Item, 0, 320), boxes: make([]Rect, 0, 128)}
 	b.rect(Rect{0, 0, o.W, o.H}, White, 0, White, "background")
-	p := chartInto(b, m, o, governing(m))
+	p := chartInto(b, m, o, governing(m, o.CurvePoints))
 	return &Layout{W: o.W, H: o.H, Unit: o.Unit, Title: Clean(m.Name), Items: b.items, Plot: p}
 }
 

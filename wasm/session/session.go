@@ -177,7 +177,7 @@ func (s *Session) Recompute() bool {
 	}
 	s.dirty = false
 	sh := s.stripHeight()
-	s.chartLayout = chart.Chart(s.model, chart.ChartOptions{W: s.w, H: s.h - sh, Measure: s.measure})
+	s.chartLayout = chart.Chart(s.model, chart.ChartOptions{W: s.w, H: s.h - sh, Measure: s.measure, CurvePoints: 120})
 	s.layoutControls(s.h-sh, sh)
 	if s.hover != nil {
 		s.Hover(s.hover.X, s.hover.Y)
