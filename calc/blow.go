@@ -70,6 +70,10 @@ type Blow struct {
 	LengthM  float64
 	SetMm    float64 // set per blow used in the formula
 	Capped   bool    // SetMm was raised to the minimum practical set
+	// FormulaKN is what the formula gives at the set asked for, before the
+	// cap; equal to UltimateKN when not Capped. Below the minimum practical
+	// set it is not a capacity that may be claimed.
+	FormulaKN float64
 	RamKg    float64
 	StruckKg float64 // P as a mass
 	// EfficiencyOfBlow is η and Branch the formula branch used.
@@ -250,6 +254,12 @@ func (m *Model) BlowAt(dropM, setMm, lengthM float64) (Blow, error) {
 	}
 	b.ColumnEdge = edge
 	m.fillBlow(&b, r)
+	b.FormulaKN = r
+	if b.Capped {
+		if rf, _, ok := m.ultimate(e, setMm, lengthM); ok {
+			b.FormulaKN = rf
+		}
+	}
 	if edge >= 0 {
 		b.Warnings = append(b.Warnings, Warning{WarnBoundary, fmt.Sprintf(
 			"banded: the answer straddles the edge between the %s and %s columns at %.2f MPa; the edge is reported",

@@ -174,3 +174,29 @@ func ExampleModel_Require() {
 	fmt.Printf("stop when 10 blows drive no more than %.0f mm (%.2f mm per blow), zone %s\n", q.SetMm10, q.SetMm, q.Zone)
 	// Output: stop when 10 blows drive no more than 63 mm (6.34 mm per blow), zone easy
 }
+
+// Below the minimum practical set the reported capacity is capped at the
+// resistance at that set, with a warning, and the formula's own figure is
+// kept apart (REFERENCE.md section 1: dynamic formulae are unreliable at
+// small sets [C]).
+func TestCapBelowMinimumSet(t *testing.T) {
+	p := givenProject(kgForKN(30), kgForKN(30), 1, 0.36, 0.9, 18, 0, 0, 300)
+	p.MinSetMm = F(5)
+	m := mustResolve(t, p)
+	low, _ := m.BlowAt(0.9, 2, 10)
+	atMin, _ := m.BlowAt(0.9, 5, 10)
+	if !low.Capped || low.UltimateKN != atMin.UltimateKN {
+		t.Errorf("BlowAt(set 2) = %g kN capped %v, want the %g kN of the minimum set", low.UltimateKN, low.Capped, atMin.UltimateKN)
+	}
+	// Venkatramaiah Example 16.9 at s = 2 mm: 15249.6 / (2 + 9) = 1386.3 kN.
+	if !near(low.FormulaKN, 15249.6/11, 1e-4) {
+		t.Errorf("formula value at set 2 = %g kN, want %g", low.FormulaKN, 15249.6/11)
+	}
+	found := false
+	for _, w := range low.Warnings {
+		found = found || w.Code == WarnBelowMinSet
+	}
+	if !found {
+		t.Error("no below-minimum-set warning")
+	}
+}

@@ -47,6 +47,7 @@ type SolveRow struct {
 	ImpactStressMPa  float64  `json:"impact_stress_mpa"`
 	LimitMPa         float64  `json:"limit_mpa"`
 	Capped           bool     `json:"capped"`
+	FormulaKN        float64  `json:"formula_ultimate_kn"`
 	Warnings         []string `json:"warnings"`
 }
 
@@ -108,6 +109,6 @@ func (b Blow) Row() SolveRow {
 		CcMm: r3(b.CcMm), CpMm: r3(b.CpMm), CqMm: r3(b.CqMm), CMm: r3(b.CMm),
 		HeadStressMPa: r3(b.HeadStressMPa), Category: Categories[b.Category], Zone: b.Zone,
 		UltimateKN: r3(b.UltimateKN), DesignKN: r3(b.DesignKN), ImpactStressMPa: r3(b.ImpactStressMPa),
-		LimitMPa: r3(b.LimitMPa), Capped: b.Capped, Warnings: messages(b.Warnings),
+		LimitMPa: r3(b.LimitMPa), Capped: b.Capped, FormulaKN: r3(b.FormulaKN), Warnings: messages(b.Warnings),
 	}
 }
