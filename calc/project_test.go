@@ -173,3 +173,45 @@ func BenchmarkCard(b *testing.B) {
 		_ = m.Table()
 	}
 }
+
+// Fuzz the solver over its numeric inputs: a valid project gives finite
+// answers everywhere, an invalid one an error; never a panic or a NaN.
+func FuzzSolve(f *testing.F) {
+	f.Add(500.0, 0.8, 0.25, 1.2, 250.0, 9.0, 45.0, 2.5, 100.0, 3.0, uint8(0))
+	f.Add(3059.0, 1.0, 0.36, 0.9, 300.0, 10.0, 0.0, 0.0, 300.0, 15.0, uint8(2))
+	f.Add(50.0, 0.3, 0.0, 0.05, 3000.0, 80.0, 20000.0, 10.0, 50000.0, 0.0, uint8(1))
+	f.Fuzz(func(t *testing.T, ram, eff, e, drop, dia, length, parts, cq, load, set float64, method uint8) {
+		p := &Project{
+			Format: FormatVersion, Hammer: Hammer{RamKg: F(ram), Efficiency: F(eff), Restitution: F(e)},
+			DropsM: []float64{drop}, Pile: Pile{Material: "timber", DiameterMm: F(dia), LengthM: F(length)},
+			DrivenPartsKg: F(parts), Design: Design{LoadKN: F(load), Phi: F(0.5)},
+		}
+		switch method % 3 {
+		case 0:
+			p.Compression = Compression{Method: "interpolated", Cap: []string{"timber-head"}, CqMm: F(cq)}
+		case 1:
+			p.Compression = Compression{Method: "banded", Cap: []string{"timber-head", "timber-dolly"}, CqMm: F(cq)}
+		default:
+			p.Compression = Compression{Method: "given", CcMm: F(cq), CpMm: F(cq / 2), CqMm: F(cq)}
+		}
+		m, err := Resolve(p)
+		if err != nil {
+			return
+		}
+		b, err := m.BlowAt(drop, set, length)
+		if err == nil {
+			for _, v := range []float64{b.UltimateKN, b.DesignKN, b.CMm, b.HeadStressMPa, b.ImpactStressMPa, b.FormulaKN} {
+				if !finite(v) {
+					t.Fatalf("BlowAt(%g) has %v: %+v", set, v, b)
+				}
+			}
+		}
+		q, err := m.Require(drop, length)
+		if err != nil || !finite(q.SetMm) || q.SetMm < 0 || !finite(q.RefusalKN) {
+			t.Fatalf("Require = %+v, %v", q, err)
+		}
+		if h, _, _ := m.DropFor(set, length); !finite(h) {
+			t.Fatalf("DropFor(%g) = %v", set, h)
+		}
+	})
+}
