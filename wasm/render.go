@@ -26,9 +26,10 @@ import (
 // apart, which costs nothing in the download (a second face would add about
 // 70 kB to the compressed program).
 type painter struct {
-	regular *opentype.Font
-	mu      sync.Mutex
-	faces   map[faceKey]*text.GoXFace
+	regular  *opentype.Font
+	mu       sync.Mutex
+	faces    map[faceKey]*text.GoXFace
+	advances map[rune]float64
 
 	white *ebiten.Image
 	vs    []ebiten.Vertex
@@ -46,7 +47,7 @@ func newPainter() *painter {
 	}
 	white := ebiten.NewImage(3, 3)
 	white.Fill(color.White)
-	return &painter{regular: reg, faces: map[faceKey]*text.GoXFace{},
+	return &painter{regular: reg, faces: map[faceKey]*text.GoXFace{}, advances: map[rune]float64{},
 		white: white.SubImage(image.Rect(1, 1, 2, 2)).(*ebiten.Image)}
 }
 
@@ -72,13 +73,35 @@ func (p *painter) face(sizePx float64) *text.GoXFace {
 const boldOffset = 0.05
 
 // measure is the width of a string in the size's own units, for layouts.
+// Without hinting, advances scale with the size, so each rune's advance is
+// read once from a 64 px face and kept: layouts measure hundreds of
+// candidate labels, and reading the font each time is slow under
+// WebAssembly. (Kerning is ignored; the Go fonts' pairs are small.)
 func (p *painter) measure(s string, size float64, bold bool) float64 {
-	// Measure at 8× and scale down, so small sizes are not rounded.
-	w := text.Advance(s, p.face(size*8)) / 8
+	w := 0.0
+	for _, r := range s {
+		w += p.advance64(r)
+	}
+	w *= size / 64
 	if bold {
 		w += boldOffset * size
 	}
 	return w
+}
+
+// advance64 is the advance of a rune at 64 px.
+func (p *painter) advance64(r rune) float64 {
+	p.mu.Lock()
+	a, ok := p.advances[r]
+	p.mu.Unlock()
+	if ok {
+		return a
+	}
+	a = text.Advance(string(r), p.face(64))
+	p.mu.Lock()
+	p.advances[r] = a
+	p.mu.Unlock()
+	return a
 }
 
 // draw draws items scaled by scale onto dst. Consecutive single segments
