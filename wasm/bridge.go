@@ -19,7 +19,8 @@ import (
 // argument and result is a string or a number; JSON travels as strings.
 // Nothing it does bypasses validation.
 type bridge struct {
-	g *game
+	g     *game
+	later js.Func
 }
 
 func (b *bridge) register() {
@@ -134,8 +135,18 @@ func (b *bridge) projectJSON() string {
 	return buf.String()
 }
 
-// notifyChanged tells the page that a control changed the project.
-func (b *bridge) notifyChanged() { host("controlChanged", b.projectJSON()) }
+// notifyChanged tells the page that a control changed the project. The
+// page is called from a timer, after the frame, so its table and autosave
+// do not run inside the game's Update.
+func (b *bridge) notifyChanged() {
+	if !b.later.Truthy() {
+		b.later = js.FuncOf(func(js.Value, []js.Value) any {
+			host("controlChanged", b.projectJSON())
+			return nil
+		})
+	}
+	js.Global().Call("setTimeout", b.later, 0)
+}
 
 func (b *bridge) cardSVG(paper string) string {
 	var buf bytes.Buffer

@@ -136,6 +136,7 @@ func (g *game) Update() error {
 	g.pending = g.pending || changed
 	if g.pending && g.changed != nil && (s.Dragging() < 0 || time.Since(g.lastNotify) >= notifyEvery) {
 		g.pending, g.lastNotify = false, time.Now()
+		// After Update returns: the page's work is not the game's.
 		g.changed()
 	}
 	return nil

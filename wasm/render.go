@@ -30,6 +30,8 @@ type painter struct {
 	mu       sync.Mutex
 	faces    map[faceKey]*text.GoXFace
 	advances map[rune]float64
+	labels   map[labelKey]*label
+	frame    int // counts static redraws, for the label cache
 
 	white *ebiten.Image
 	vs    []ebiten.Vertex
@@ -47,7 +49,7 @@ func newPainter() *painter {
 	}
 	white := ebiten.NewImage(3, 3)
 	white.Fill(color.White)
-	return &painter{regular: reg, faces: map[faceKey]*text.GoXFace{}, advances: map[rune]float64{},
+	return &painter{regular: reg, faces: map[faceKey]*text.GoXFace{}, advances: map[rune]float64{}, labels: map[labelKey]*label{},
 		white: white.SubImage(image.Rect(1, 1, 2, 2)).(*ebiten.Image)}
 }
 
@@ -108,6 +110,7 @@ func (p *painter) advance64(r rune) float64 {
 // of one style (grid lines, ticks, hatching) go into one path and so one
 // DrawTriangles call; every other item is one call of its own.
 func (p *painter) draw(dst *ebiten.Image, items []chart.Item, scale float64) {
+	p.frame++
 	for i := 0; i < len(items); i++ {
 		it := &items[i]
 		switch it.Kind {
@@ -235,33 +238,83 @@ func (p *painter) triangles(dst *ebiten.Image, c color.RGBA, rule ebiten.FillRul
 	dst.DrawTriangles(p.vs, p.is, p.white, op)
 }
 
+// label is one line of text rendered once, white on transparent, to be
+// tinted when drawn.
+type label struct {
+	img      *ebiten.Image
+	w        float64 // advance width, device px
+	ascent   float64 // from the top of img to the baseline, device px
+	pad      float64
+	lastUsed int
+}
+
+type labelKey struct {
+	s    string
+	px   int // size in 1/8 device px
+	bold bool
+}
+
+// maxLabels bounds the label cache; when it is full, the labels not used
+// in the last frames are dropped.
+const maxLabels = 600
+
+// label returns the rendered image of a line of text. Labels repeat from
+// frame to frame (ticks, titles, zone names), so one DrawImage per label
+// replaces one per glyph.
+func (p *painter) label(s string, sizePx float64, bold bool) *label {
+	k := labelKey{s, int(math.Round(sizePx * 8)), bold}
+	if l, ok := p.labels[k]; ok {
+		l.lastUsed = p.frame
+		return l
+	}
+	if len(p.labels) >= maxLabels {
+		for k, l := range p.labels {
+			if l.lastUsed < p.frame-1 {
+				l.img.Deallocate()
+				delete(p.labels, k)
+			}
+		}
+	}
+	f := p.face(sizePx)
+	m := f.Metrics()
+	w := text.Advance(s, f)
+	extra := 0.0
+	if bold {
+		extra = math.Max(1, math.Round(boldOffset*sizePx))
+	}
+	const pad = 2.0
+	iw := int(math.Ceil(w+extra+2*pad)) + 1
+	ih := int(math.Ceil(m.HAscent+m.HDescent+2*pad)) + 1
+	img := ebiten.NewImage(max(iw, 1), max(ih, 1))
+	op := &text.DrawOptions{}
+	op.GeoM.Translate(pad, pad)
+	text.Draw(img, s, f, op)
+	if bold {
+		op.GeoM.Translate(extra, 0)
+		text.Draw(img, s, f, op)
+	}
+	l := &label{img: img, w: w + extra, ascent: m.HAscent + pad, pad: pad, lastUsed: p.frame}
+	p.labels[k] = l
+	return l
+}
+
 // text draws one line of text at its baseline anchor.
 func (p *painter) text(dst *ebiten.Image, it *chart.Item, scale float64) {
-	f := p.face(it.Size * scale)
-	op := &text.DrawOptions{}
+	l := p.label(it.Text, it.Size*scale, it.Bold)
+	x := -l.pad
 	switch it.Anchor {
 	case chart.Middle:
-		op.PrimaryAlign = text.AlignCenter
+		x -= l.w / 2
 	case chart.End:
-		op.PrimaryAlign = text.AlignEnd
+		x -= l.w
 	}
-	// Draw from the baseline: text/v2 places the top of the line at the
-	// origin.
-	op.GeoM.Translate(0, -f.Metrics().HAscent)
+	op := &ebiten.DrawImageOptions{}
+	op.GeoM.Translate(x, -l.ascent)
 	if it.Vertical {
 		op.GeoM.Rotate(-math.Pi / 2)
 	}
 	op.GeoM.Translate(it.At.X*scale, it.At.Y*scale)
 	op.ColorScale.ScaleWithColor(it.Fill)
-	text.Draw(dst, it.Text, f, op)
-	if it.Bold {
-		// A whole device pixel: a fractional offset blurs the glyphs.
-		d := math.Max(1, math.Round(boldOffset*it.Size*scale))
-		if it.Vertical {
-			op.GeoM.Translate(0, -d)
-		} else {
-			op.GeoM.Translate(d, 0)
-		}
-		text.Draw(dst, it.Text, f, op)
-	}
+	op.Filter = ebiten.FilterLinear
+	dst.DrawImage(l.img, op)
 }
