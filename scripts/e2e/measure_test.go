@@ -8,7 +8,6 @@ import (
 	"slices"
 	"strings"
 	"testing"
-
 )
 
 // BenchmarkDragInBrowser measures, in the page under Chromium's software
