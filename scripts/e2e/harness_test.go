@@ -289,7 +289,7 @@ func (b *browser) waitFor(what, cond string, timeout time.Duration) {
 	deadline := time.Now().Add(timeout)
 	for {
 		ctx, cancel := context.WithTimeout(b.ctx, 10*time.Second)
-		ok, err := chromedp.Run(ctx, chromedp.Evaluate[bool]("!!("+cond+")"))
+		ok, err := chromedp.Run(ctx, chromedp.Evaluate[bool]("Promise.resolve("+cond+").then(v => !!v)", chromedp.EvalAwaitPromise))
 		cancel()
 		if err == nil && ok {
 			return
