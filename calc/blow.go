@@ -66,16 +66,16 @@ const (
 
 // Blow is the result of one blow: the Hiley formula solved at one set.
 type Blow struct {
-	DropM    float64
-	LengthM  float64
-	SetMm    float64 // set per blow used in the formula
-	Capped   bool    // SetMm was raised to the minimum practical set
+	DropM   float64
+	LengthM float64
+	SetMm   float64 // set per blow used in the formula
+	Capped  bool    // SetMm was raised to the minimum practical set
 	// FormulaKN is what the formula gives at the set asked for, before the
 	// cap; equal to UltimateKN when not Capped. Below the minimum practical
 	// set it is not a capacity that may be claimed.
 	FormulaKN float64
-	RamKg    float64
-	StruckKg float64 // P as a mass
+	RamKg     float64
+	StruckKg  float64 // P as a mass
 	// EfficiencyOfBlow is η and Branch the formula branch used.
 	EfficiencyOfBlow float64
 	Branch           Branch
