@@ -50,6 +50,7 @@ type frameKey struct {
 type chartKey struct {
 	layout any
 	w, h   int
+	draft  bool
 }
 
 func (g *game) Update() error {
@@ -156,7 +157,8 @@ func (g *game) Draw(screen *ebiten.Image) {
 	}
 	start := time.Now()
 	layout := g.s.Chart()
-	key := &chartKey{layout, w, h}
+	draft := g.s.Dragging() >= 0 || g.touchOn
+	key := &chartKey{layout, w, h, draft}
 	if g.static == nil || g.drawn == nil || *g.drawn != *key {
 		if g.static == nil || g.static.Bounds().Dx() != w || g.static.Bounds().Dy() != h {
 			if g.static != nil {
@@ -165,7 +167,9 @@ func (g *game) Draw(screen *ebiten.Image) {
 			g.static = ebiten.NewImage(w, h)
 		}
 		g.static.Fill(paperWhite)
+		g.p.draft = draft
 		g.p.draw(g.static, layout.Items, g.scale)
+		g.p.draft = false
 		g.drawn = key
 	}
 	screen.DrawImage(g.static, nil)

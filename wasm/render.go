@@ -32,6 +32,9 @@ type painter struct {
 	advances map[rune]float64
 	labels   map[labelKey]*label
 	frame    int // counts static redraws, for the label cache
+	// draft turns anti-aliasing off: while a handle is dragged the chart
+	// is redrawn every frame, and the smooth version follows on release.
+	draft bool
 
 	white *ebiten.Image
 	vs    []ebiten.Vertex
@@ -234,7 +237,7 @@ func (p *painter) triangles(dst *ebiten.Image, c color.RGBA, rule ebiten.FillRul
 		// Straight alpha: DrawTrianglesOptions' default colour-scale mode.
 		p.vs[i].ColorR, p.vs[i].ColorG, p.vs[i].ColorB, p.vs[i].ColorA = r, g, b, a
 	}
-	op := &ebiten.DrawTrianglesOptions{FillRule: rule, AntiAlias: antialias}
+	op := &ebiten.DrawTrianglesOptions{FillRule: rule, AntiAlias: antialias && !p.draft}
 	dst.DrawTriangles(p.vs, p.is, p.white, op)
 }
 
