@@ -166,11 +166,13 @@ func (g *game) Draw(screen *ebiten.Image) {
 			}
 			g.static = ebiten.NewImage(w, h)
 		}
+		t0 := time.Now()
 		g.static.Fill(paperWhite)
 		g.p.draft = draft
 		g.p.draw(g.static, layout.Items, g.scale)
 		g.p.draft = false
 		g.drawn = key
+		g.t.static.add(time.Since(t0))
 	}
 	screen.DrawImage(g.static, nil)
 	g.p.draw(screen, g.s.Overlay(), g.scale)

@@ -171,7 +171,7 @@ func (p *painter) strokePath(dst *ebiten.Image, path *vector.Path, width float64
 	if width <= 0 || c.A == 0 {
 		return
 	}
-	p.vs, p.is = path.AppendVerticesAndIndicesForStroke(p.vs[:0], p.is[:0], &vector.StrokeOptions{Width: float32(width), LineJoin: vector.LineJoinRound, LineCap: vector.LineCapButt})
+	p.vs, p.is = path.AppendVerticesAndIndicesForStroke(p.vs[:0], p.is[:0], &vector.StrokeOptions{Width: float32(width), LineJoin: vector.LineJoinBevel, LineCap: vector.LineCapButt})
 	if len(p.is) == 0 {
 		return
 	}
