@@ -268,7 +268,16 @@ func (b *builder) dot(c Point, r float64, fill color.RGBA, width float64, stroke
 
 // textBox is the box a text would cover.
 func (b *builder) textBox(s string, at Point, size float64, bold bool, a Anchor, vertical bool) Rect {
-	w := b.measure(s, size, bold)
+	return TextBox(b.measure, s, at, size, bold, a, vertical)
+}
+
+// TextBox is the box that a line of text covers when drawn at the anchor
+// point at (on its baseline), from Ascent above the baseline to Descent
+// below, as wide as measure says. Layouts outside this package (the
+// canvas's controls and crosshair) use it so that every text box is worked
+// out one way.
+func TextBox(measure Measure, s string, at Point, size float64, bold bool, a Anchor, vertical bool) Rect {
+	w := measure(s, size, bold)
 	off := 0.0
 	switch a {
 	case Middle:

@@ -107,16 +107,8 @@ func (s *Session) crosshair(r *Reading) []chart.Item {
 }
 
 func (s *Session) text(str string, at chart.Point, size float64, bold bool, a chart.Anchor, c color.RGBA, role string) chart.Item {
-	w := s.measure(str, size, bold)
-	x := at.X
-	switch a {
-	case chart.Middle:
-		x -= w / 2
-	case chart.End:
-		x -= w
-	}
 	return chart.Item{Kind: chart.Text, Text: str, At: at, Size: size, Bold: bold, Anchor: a, Fill: c, Role: role,
-		Box: chart.Rect{X: x, Y: at.Y - chart.Ascent*size, W: w, H: (chart.Ascent + chart.Descent) * size}}
+		Box: chart.TextBox(s.measure, str, at, size, bold, a, false)}
 }
 
 func rectPoints(r chart.Rect) []chart.Point {
