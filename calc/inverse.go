@@ -47,8 +47,13 @@ type Requirement struct {
 // for any method. The result may be negative: then no set gives R.
 func (m *Model) setFor(ultimateKN, dropM, lengthM float64) float64 {
 	eta, _ := m.eta(lengthM)
+	return m.setAt(m.energy(dropM)*eta, ultimateKN, lengthM)
+}
+
+// setAt is setFor given the energy delivered to the pile, E·η (kN·mm).
+func (m *Model) setAt(energyEta, ultimateKN, lengthM float64) float64 {
 	cc, cp, cq := m.Compressions(ultimateKN, lengthM)
-	return m.energy(dropM)*eta/ultimateKN - (cc+cp+cq)/2
+	return energyEta/ultimateKN - (cc+cp+cq)/2
 }
 
 // Require works out the set that the design load needs at a drop and a

@@ -28,6 +28,10 @@ type ChartOptions struct {
 	// calc.CurveOptions). A screen chart redrawn while a control is dragged
 	// may take fewer.
 	CurvePoints int
+	// Recycle, when not nil, is a layout from an earlier call that is no
+	// longer used: its memory is reused and its contents overwritten. A
+	// chart redrawn at the frame rate then allocates less.
+	Recycle *Layout
 }
 
 func (o *ChartOptions) defaults() {
@@ -90,7 +94,15 @@ func governing(m *calc.Model, points int) []dropData {
 // model must come from calc.Resolve.
 func Chart(m *calc.Model, o ChartOptions) *Layout {
 	o.defaults()
-	b := &builder{measure: o.Measure, items: make([]Item, 0, 320), boxes: make([]Rect, 0, 128)}
+	b := &builder{measure: o.Measure}
+	if r := o.Recycle; r != nil && cap(r.Items) > 0 {
+		clear(r.Items) // drop what the old items point to
+		b.items = r.Items[:0]
+		*r = Layout{}
+	} else {
+		b.items = make([]Item, 0, 320)
+	}
+	b.boxes = make([]Rect, 0, 128)
 	b.rect(Rect{0, 0, o.W, o.H}, White, 0, White, "background")
 	p := chartInto(b, m, o, governing(m, o.CurvePoints))
 	return &Layout{W: o.W, H: o.H, Unit: o.Unit, Title: Clean(m.Name), Items: b.items, Plot: p}
@@ -126,6 +138,8 @@ func chartInto(b *builder, m *calc.Model, o ChartOptions, drops []dropData) *Plo
 		s := Series{DropM: q.DropM, LengthM: q.LengthM, Label: num(q.DropM, 3) + " m",
 			RequiredMm10: q.SetMm10, Reachable: q.Achievable}
 		s.Colour, s.Dash = CurveStyle(i, ts)
+		s.KN = make([]float64, 0, len(d.curve.Points))
+		s.SetMm10 = make([]float64, 0, len(d.curve.Points))
 		for _, pt := range d.curve.Points {
 			s.KN = append(s.KN, pt.UltimateKN*basis)
 			s.SetMm10 = append(s.SetMm10, 10*pt.SetMm)
@@ -162,8 +176,12 @@ func chartInto(b *builder, m *calc.Model, o ChartOptions, drops []dropData) *Plo
 	// x ticks: as many as fit with a gap of 1.2 text sizes between labels.
 	var xt []float64
 	var xstep float64
-	for nx := max(1, int(plotW/(2*ts))); ; nx-- {
+	for nx, tried := max(1, int(plotW/(2*ts))), 0.0; ; nx-- {
 		xstep = NiceStep(xRight, nx)
+		if xstep == tried && nx > 1 {
+			continue // many counts give the same step, already rejected
+		}
+		tried = xstep
 		xmax := math.Ceil(xRight/xstep-1e-9) * xstep
 		xt = Ticks(0, xmax, xstep)
 		widest := 0.0
@@ -230,7 +248,8 @@ func chartInto(b *builder, m *calc.Model, o ChartOptions, drops []dropData) *Plo
 	// Curves: solid above the refusal band, thin and dotted in it.
 	runs := make([][][]Point, len(p.Series))
 	for i, s := range p.Series {
-		var above, below []Point
+		above := make([]Point, 0, len(s.KN)+1)
+		below := make([]Point, 0, len(s.KN)+1)
 		for k := range s.KN {
 			pt := Point{p.XOf(s.KN[k]), p.YOf(s.SetMm10[k])}
 			if k > 0 && (s.SetMm10[k-1] >= p.MinSetMm10) != (s.SetMm10[k] >= p.MinSetMm10) {

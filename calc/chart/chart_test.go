@@ -3,6 +3,7 @@ package chart
 import (
 	"fmt"
 	"math"
+	"reflect"
 	"slices"
 	"strconv"
 	"strings"
@@ -360,5 +361,32 @@ func TestCleanedTitle(t *testing.T) {
 	l := Chart(m, ChartOptions{})
 	if strings.ContainsRune(l.Title, '\u202e') || l.Title != Clean(m.Name) {
 		t.Errorf("Chart title = %q, want %q", l.Title, Clean(m.Name))
+	}
+}
+
+// TestChartRecycle checks that a chart laid out in a recycled layout is the
+// chart laid out afresh, across projects and sizes that grow and shrink the
+// number of items.
+func TestChartRecycle(t *testing.T) {
+	ps := append(fileProjects(t), randomProjects(t, 10)...)
+	var old *Layout
+	n := 0
+	for _, p := range ps {
+		for _, o := range sizes {
+			want := Chart(p.m, o)
+			o.Recycle = old
+			got := Chart(p.m, o)
+			if !reflect.DeepEqual(got, want) {
+				t.Fatalf("%s at %g × %g: the recycled layout differs from a fresh one", p.name, o.W, o.H)
+			}
+			if old != nil && len(old.Items) != 0 {
+				t.Fatalf("the recycled layout still holds %d items", len(old.Items))
+			}
+			old = got
+			n++
+		}
+	}
+	if n < 20 {
+		t.Fatalf("only %d charts compared", n)
 	}
 }

@@ -6,6 +6,9 @@ import "math"
 // part inside, with an end that was already inside returned unchanged, and
 // ok false when no part is inside.
 func clipSegment(p, q Point, r Rect) (Point, Point, bool) {
+	if r.Contains(p) && r.Contains(q) {
+		return p, q, true // most segments of a curve: nothing to clip
+	}
 	t0, t1 := 0.0, 1.0
 	dx, dy := q.X-p.X, q.Y-p.Y
 	for _, e := range [4][2]float64{

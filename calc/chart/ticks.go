@@ -3,6 +3,7 @@ package chart
 import (
 	"math"
 	"strconv"
+	"strings"
 
 	"setcard/calc"
 )
@@ -33,8 +34,9 @@ func Ticks(lo, hi, step float64) []float64 {
 	a := math.Floor(lo/step + 1e-9)
 	z := math.Ceil(hi/step - 1e-9)
 	out := make([]float64, 0, int(z-a)+1)
+	places := decimals(step) + 1
 	for k := a; k <= z; k++ {
-		out = append(out, roundTo(k*step, decimals(step)+1))
+		out = append(out, roundTo(k*step, places))
 	}
 	return out
 }
@@ -50,7 +52,33 @@ func decimals(step float64) int {
 
 // formatTick writes a tick value with the decimals its step needs.
 func formatTick(v float64, step float64) string {
-	return strconv.FormatFloat(v+0, 'f', decimals(step), 64)
+	d := decimals(step)
+	// Ticks are whole multiples of 10^-d, so the common case is an integer
+	// count of them, written with integer formatting (FormatFloat is
+	// several times slower, and layouts format every tick more than once).
+	if n := math.Round(v * math.Pow10(d)); d <= 6 && math.Abs(n) < 1e15 && n/math.Pow10(d) == v {
+		return fixedPoint(int64(n), d)
+	}
+	return strconv.FormatFloat(v+0, 'f', d, 64)
+}
+
+// fixedPoint writes n × 10^-d with d decimals.
+func fixedPoint(n int64, d int) string {
+	neg := n < 0
+	if neg {
+		n = -n
+	}
+	s := strconv.FormatInt(n, 10)
+	if d > 0 {
+		if len(s) <= d {
+			s = strings.Repeat("0", d-len(s)+1) + s
+		}
+		s = s[:len(s)-d] + "." + s[len(s)-d:]
+	}
+	if neg {
+		s = "-" + s
+	}
+	return s
 }
 
 func roundTo(v float64, places int) float64 {

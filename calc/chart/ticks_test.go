@@ -3,6 +3,7 @@ package chart
 import (
 	"math"
 	"slices"
+	"strconv"
 	"testing"
 )
 
@@ -75,5 +76,27 @@ func TestFormatTick(t *testing.T) {
 		if got := formatTick(c.v, c.step); got != c.want {
 			t.Errorf("formatTick(%g, %g) = %q, want %q", c.v, c.step, got, c.want)
 		}
+	}
+}
+
+// TestFormatTickAsStrconv checks the integer fast path of formatTick
+// against the standard library's strconv.FormatFloat (the reference) on
+// every tick of many axes, negative ones and fractional steps included.
+func TestFormatTickAsStrconv(t *testing.T) {
+	n := 0
+	for _, span := range []float64{0.0007, 0.013, 0.9, 1, 7.3, 12, 95, 180, 1234, 56789, 4.2e6, 3e9} {
+		for parts := 1; parts <= 40; parts++ {
+			step := NiceStep(span, parts)
+			for _, v := range Ticks(-span, span, step) {
+				want := strconv.FormatFloat(v+0, 'f', decimals(step), 64)
+				if got := formatTick(v, step); got != want {
+					t.Fatalf("formatTick(%v, %v) = %q, strconv gives %q", v, step, got, want)
+				}
+				n++
+			}
+		}
+	}
+	if n < 10000 {
+		t.Fatalf("only %d ticks checked", n)
 	}
 }

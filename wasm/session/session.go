@@ -177,7 +177,9 @@ func (s *Session) Recompute() bool {
 	}
 	s.dirty = false
 	sh := s.stripHeight()
-	s.chartLayout = chart.Chart(s.model, chart.ChartOptions{W: s.w, H: s.h - sh, Measure: s.measure, CurvePoints: 120})
+	// Nothing keeps the old layout once the new one is made (Chart's
+	// callers take it afresh), so its memory is recycled.
+	s.chartLayout = chart.Chart(s.model, chart.ChartOptions{W: s.w, H: s.h - sh, Measure: s.measure, CurvePoints: 120, Recycle: s.chartLayout})
 	s.layoutControls(s.h-sh, sh)
 	if s.hover != nil {
 		s.Hover(s.hover.X, s.hover.Y)
