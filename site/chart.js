@@ -46,6 +46,19 @@
     globalThis.setcardNoGL = true;
   }
 
+  // The Go program asks for a WebGL context with the browser's default
+  // multisampling. It only ever copies its finished frame onto the canvas
+  // as one axis-aligned rectangle, which multisampling cannot improve, and
+  // under a software renderer it multiplies the cost of every frame. So the
+  // canvas's context is made without it.
+  const getContext = HTMLCanvasElement.prototype.getContext;
+  HTMLCanvasElement.prototype.getContext = function (type, attrs) {
+    if (type === "webgl2" || type === "webgl") {
+      attrs = Object.assign({}, attrs, {antialias: false});
+    }
+    return getContext.call(this, type, attrs);
+  };
+
   if (typeof Go !== "function" || typeof WebAssembly !== "object") {
     fail(typeof WebAssembly !== "object" ? "this browser has no WebAssembly" : "wasm_exec.js did not load");
     return;

@@ -215,7 +215,6 @@ var limitsJSON = func() string {
 // timings keeps the recent Update, Draw and recompute times.
 type timings struct {
 	update, draw, recompute ring
-	static                  ring // the part of draw that redraws the chart layer
 }
 
 func newTimings() *timings { return &timings{} }
@@ -245,6 +244,5 @@ func (r *ring) ordered() []float64 {
 func (t *timings) json() string {
 	return mustJSON(map[string][]float64{
 		"update_ms": t.update.ordered(), "draw_ms": t.draw.ordered(), "recompute_ms": t.recompute.ordered(),
-		"static_ms": t.static.ordered(),
 	})
 }

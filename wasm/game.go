@@ -16,8 +16,6 @@ type game struct {
 	s       *session.Session
 	p       *painter
 	scale   float64 // device pixels per CSS pixel
-	static  *ebiten.Image
-	drawn   *chartKey // what static holds
 	touches []ebiten.TouchID
 	touchID ebiten.TouchID
 	touchOn bool
@@ -45,12 +43,6 @@ const notifyEvery = 150 * time.Millisecond
 type frameKey struct {
 	version int
 	w, h    int
-}
-
-type chartKey struct {
-	layout any
-	w, h   int
-	draft  bool
 }
 
 func (g *game) Update() error {
@@ -149,6 +141,9 @@ func repeat(k ebiten.Key) bool {
 	return d == 1 || d > 24 && d%4 == 0
 }
 
+// Draw draws the chart and the overlay straight onto the screen. Each is
+// batched into one DrawTriangles call (see painter), so redrawing the chart
+// costs about as much as copying a cached copy of it would.
 func (g *game) Draw(screen *ebiten.Image) {
 	w, h := screen.Bounds().Dx(), screen.Bounds().Dy()
 	now := frameKey{g.s.Version, w, h}
@@ -156,25 +151,9 @@ func (g *game) Draw(screen *ebiten.Image) {
 		return
 	}
 	start := time.Now()
-	layout := g.s.Chart()
-	draft := g.s.Dragging() >= 0 || g.touchOn
-	key := &chartKey{layout, w, h, draft}
-	if g.static == nil || g.drawn == nil || *g.drawn != *key {
-		if g.static == nil || g.static.Bounds().Dx() != w || g.static.Bounds().Dy() != h {
-			if g.static != nil {
-				g.static.Deallocate()
-			}
-			g.static = ebiten.NewImage(w, h)
-		}
-		t0 := time.Now()
-		g.static.Fill(paperWhite)
-		g.p.draft = draft
-		g.p.draw(g.static, layout.Items, g.scale)
-		g.p.draft = false
-		g.drawn = key
-		g.t.static.add(time.Since(t0))
-	}
-	screen.DrawImage(g.static, nil)
+	// The chart's background and the controls' panel cover the canvas
+	// between them, so the screen is not cleared first.
+	g.p.draw(screen, g.s.Chart().Items, g.scale)
 	g.p.draw(screen, g.s.Overlay(), g.scale)
 	g.shown = now
 	g.t.draw.add(time.Since(start))

@@ -8,7 +8,6 @@
 package main
 
 import (
-	"image/color"
 	"syscall/js"
 
 	"github.com/hajimehoshi/ebiten/v2"
@@ -16,8 +15,6 @@ import (
 	"setcard/calc"
 	"setcard/wasm/session"
 )
-
-var paperWhite = color.RGBA{0xff, 0xff, 0xff, 0xff}
 
 func main() {
 	p := newPainter()

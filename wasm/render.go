@@ -6,15 +6,13 @@ import (
 	"image"
 	"image/color"
 	"math"
-	"slices"
 	"sync"
 
 	"github.com/hajimehoshi/ebiten/v2"
-	"github.com/hajimehoshi/ebiten/v2/text/v2"
-	"github.com/hajimehoshi/ebiten/v2/vector"
 	"golang.org/x/image/font"
 	"golang.org/x/image/font/gofont/goregular"
 	"golang.org/x/image/font/opentype"
+	"golang.org/x/image/math/fixed"
 
 	"setcard/calc/chart"
 )
@@ -22,53 +20,102 @@ import (
 // painter draws chart layouts with Ebiten. It does no layout arithmetic:
 // every position comes from the layout and is multiplied by one scale.
 //
+// Everything a layout holds (fills, strokes and text) becomes triangles in
+// one vertex buffer that samples one texture, the painter's atlas: a white
+// patch for solid colour and the glyphs rasterised so far. A whole chart
+// is then one DrawTriangles call, which Ebiten turns into one draw call,
+// with no stencil passes and no off-screen anti-aliasing passes: under a
+// software renderer every extra pass over the canvas costs milliseconds.
+// Edges that need smoothing get a one-pixel fringe fading to transparent,
+// drawn in the same call.
+//
 // It ships one face, Go Regular: bold text is drawn twice, a small offset
 // apart, which costs nothing in the download (a second face would add about
 // 70 kB to the compressed program).
 type painter struct {
-	regular  *opentype.Font
-	mu       sync.Mutex
-	faces    map[faceKey]*text.GoXFace
+	regular *opentype.Font
+	mu      sync.Mutex
+	faces   map[int]font.Face // by size in 1/8 px
+	// ascii holds the advances at 64 px of the runes below 256, read once;
+	// others are read on demand into advances.
+	ascii    [256]float64
 	advances map[rune]float64
-	labels   map[labelKey]*label
-	frame    int // counts static redraws, for the label cache
-	// draft turns anti-aliasing off: while a handle is dragged the chart
-	// is redrawn every frame, and the smooth version follows on release.
-	draft bool
 
-	white *ebiten.Image
-	vs    []ebiten.Vertex
-	is    []uint16
+	atlas  *ebiten.Image
+	glyphs map[glyphKey]glyph
+	shelf  shelfPacker
+	pix    []byte
+
+	vs []ebiten.Vertex
+	is []uint16
+	// pts and runs are scratch space for strokes and dashes.
+	pts  []vec
+	runs [][]vec
 }
 
-type faceKey struct {
-	px int // size in 1/8 px
+// The atlas: a white patch in its top-left corner, glyphs after it. When
+// it is full, it is cleared and glyphs are rasterised again as needed.
+const (
+	atlasSize = 1024
+	whiteSize = 4
+	// fringe is the width of the smoothing fringe in device pixels.
+	fringe = 1.0
+	// phases is how many horizontal sub-pixel positions a glyph is
+	// rasterised at, so that text keeps its spacing without blurring.
+	phases = 4
+)
+
+// The centre of the white patch: solid colour samples it.
+const whiteUV = whiteSize / 2
+
+type glyphKey struct {
+	r     rune
+	px    int // size in 1/8 px
+	phase uint8
 }
+
+// glyph is a rasterised glyph: where it is in the atlas, and its offset
+// from the pen position (whole pixels plus the phase) to its top-left.
+type glyph struct {
+	src    image.Rectangle
+	dx, dy int
+}
+
+type vec struct{ x, y float32 }
 
 func newPainter() *painter {
 	reg, err := opentype.Parse(goregular.TTF)
 	if err != nil {
 		panic("setcard: shipped font does not parse: " + err.Error())
 	}
-	white := ebiten.NewImage(3, 3)
-	white.Fill(color.White)
-	return &painter{regular: reg, faces: map[faceKey]*text.GoXFace{}, advances: map[rune]float64{}, labels: map[labelKey]*label{},
-		white: white.SubImage(image.Rect(1, 1, 2, 2)).(*ebiten.Image)}
+	p := &painter{regular: reg, faces: map[int]font.Face{}, advances: map[rune]float64{}, glyphs: map[glyphKey]glyph{}}
+	f := p.face(64)
+	for r := range rune(len(p.ascii)) {
+		p.ascii[r] = advanceOf(f, r)
+	}
+	return p
+}
+
+func advanceOf(f font.Face, r rune) float64 {
+	a, ok := f.GlyphAdvance(r)
+	if !ok {
+		a, _ = f.GlyphAdvance('\ufffd')
+	}
+	return float64(a) / 64
 }
 
 // face returns the font face of a size in device pixels.
-func (p *painter) face(sizePx float64) *text.GoXFace {
-	k := faceKey{int(math.Round(sizePx * 8))}
+func (p *painter) face(sizePx float64) font.Face {
+	k := int(math.Round(sizePx * 8))
 	p.mu.Lock()
 	defer p.mu.Unlock()
 	if f, ok := p.faces[k]; ok {
 		return f
 	}
-	xf, err := opentype.NewFace(p.regular, &opentype.FaceOptions{Size: float64(k.px) / 8, DPI: 72, Hinting: font.HintingNone})
+	f, err := opentype.NewFace(p.regular, &opentype.FaceOptions{Size: float64(k) / 8, DPI: 72, Hinting: font.HintingNone})
 	if err != nil {
 		panic("setcard: font face: " + err.Error())
 	}
-	f := text.NewGoXFace(xf)
 	p.faces[k] = f
 	return f
 }
@@ -79,9 +126,9 @@ const boldOffset = 0.05
 
 // measure is the width of a string in the size's own units, for layouts.
 // Without hinting, advances scale with the size, so each rune's advance is
-// read once from a 64 px face and kept: layouts measure hundreds of
-// candidate labels, and reading the font each time is slow under
-// WebAssembly. (Kerning is ignored; the Go fonts' pairs are small.)
+// read once at 64 px and kept: layouts measure hundreds of candidate
+// labels. Kerning is ignored, here and when drawing, so that text is drawn
+// as wide as it was measured.
 func (p *painter) measure(s string, size float64, bold bool) float64 {
 	w := 0.0
 	for _, r := range s {
@@ -96,228 +143,487 @@ func (p *painter) measure(s string, size float64, bold bool) float64 {
 
 // advance64 is the advance of a rune at 64 px.
 func (p *painter) advance64(r rune) float64 {
+	if r >= 0 && int(r) < len(p.ascii) {
+		return p.ascii[r]
+	}
 	p.mu.Lock()
 	a, ok := p.advances[r]
 	p.mu.Unlock()
 	if ok {
 		return a
 	}
-	a = text.Advance(string(r), p.face(64))
+	a = advanceOf(p.face(64), r)
 	p.mu.Lock()
 	p.advances[r] = a
 	p.mu.Unlock()
 	return a
 }
 
-// draw draws items scaled by scale onto dst. Consecutive single segments
-// of one style (grid lines, ticks, hatching) go into one path and so one
-// DrawTriangles call; every other item is one call of its own.
+// draw draws items scaled by scale onto dst, in order, in as few
+// DrawTriangles calls as the vertex limit allows.
 func (p *painter) draw(dst *ebiten.Image, items []chart.Item, scale float64) {
-	p.frame++
-	for i := 0; i < len(items); i++ {
+	p.ensureAtlas()
+	for i := range items {
 		it := &items[i]
 		switch it.Kind {
-		case chart.Line:
-			var path vector.Path
-			j := i
-			for ; j < len(items) && sameLineStyle(&items[j], it); j++ {
-				addPath(&path, items[j].Points, it.Dash, scale, false)
-			}
-			i = j - 1
-			// Segments are drawn without anti-aliasing: under a software
-			// renderer it costs a pass, and they are mostly straight.
-			p.strokePath(dst, &path, it.Width*scale, it.Stroke, false)
-		case chart.Polyline:
-			var path vector.Path
-			addPath(&path, it.Points, it.Dash, scale, false)
-			p.strokePath(dst, &path, it.Width*scale, it.Stroke, !straight(it.Points))
+		case chart.Line, chart.Polyline:
+			p.strokeItem(dst, it.Points, it.Dash, it.Width*scale, it.Stroke, scale, false)
 		case chart.Area:
 			p.fill(dst, it.Points, it.Fill, scale)
 			if it.Width > 0 {
-				var path vector.Path
-				addPath(&path, it.Points, nil, scale, true)
-				p.strokePath(dst, &path, it.Width*scale, it.Stroke, !straight(it.Points))
+				p.strokeItem(dst, it.Points, nil, it.Width*scale, it.Stroke, scale, true)
 			}
 		case chart.Text:
 			p.text(dst, it, scale)
 		}
 	}
+	p.flush(dst)
 }
 
-func sameLineStyle(a, b *chart.Item) bool {
-	return a.Kind == chart.Line && a.Stroke == b.Stroke && a.Width == b.Width && slices.Equal(a.Dash, b.Dash)
+// flush draws the buffered triangles.
+func (p *painter) flush(dst *ebiten.Image) {
+	if len(p.is) > 0 {
+		dst.DrawTriangles(p.vs, p.is, p.atlas, &ebiten.DrawTrianglesOptions{})
+	}
+	p.vs, p.is = p.vs[:0], p.is[:0]
 }
 
-// addPath adds a polyline, dashed when asked, to a path.
-func addPath(path *vector.Path, pts []chart.Point, dash []float64, scale float64, closed bool) {
-	if len(pts) < 2 {
-		return
-	}
-	if len(dash) >= 2 {
-		dashed(path, pts, dash, scale)
-		return
-	}
-	path.MoveTo(float32(pts[0].X*scale), float32(pts[0].Y*scale))
-	for _, q := range pts[1:] {
-		path.LineTo(float32(q.X*scale), float32(q.Y*scale))
-	}
-	if closed {
-		path.Close()
+// reserve makes room for n more vertices in the buffer, drawing what it
+// holds first if they would not fit in one call (indices are 16-bit).
+func (p *painter) reserve(dst *ebiten.Image, n int) {
+	if len(p.vs)+n > math.MaxUint16 {
+		p.flush(dst)
 	}
 }
 
-// strokePath strokes a path as one DrawTriangles call.
-func (p *painter) strokePath(dst *ebiten.Image, path *vector.Path, width float64, c color.RGBA, antialias bool) {
-	if width <= 0 || c.A == 0 {
-		return
-	}
-	p.vs, p.is = path.AppendVerticesAndIndicesForStroke(p.vs[:0], p.is[:0], &vector.StrokeOptions{Width: float32(width), LineJoin: vector.LineJoinBevel, LineCap: vector.LineCapButt})
-	if len(p.is) == 0 {
-		return
-	}
-	p.triangles(dst, c, ebiten.FillRuleFillAll, antialias)
+// vertex adds a vertex of solid colour c at alpha a (0 to 1).
+func (p *painter) vertex(v vec, c color.RGBA, a float32) uint16 {
+	p.vs = append(p.vs, ebiten.Vertex{
+		DstX: v.x, DstY: v.y, SrcX: whiteUV, SrcY: whiteUV,
+		ColorR: float32(c.R) / 255, ColorG: float32(c.G) / 255, ColorB: float32(c.B) / 255,
+		ColorA: float32(c.A) / 255 * a,
+	})
+	return uint16(len(p.vs) - 1)
 }
 
-// dashed adds the on-segments of a dash pattern along a polyline.
-func dashed(path *vector.Path, pts []chart.Point, dash []float64, scale float64) {
-	k, left, on := 0, dash[0]*scale, true
-	for i := 1; i < len(pts); i++ {
-		ax, ay := pts[i-1].X*scale, pts[i-1].Y*scale
-		bx, by := pts[i].X*scale, pts[i].Y*scale
-		seg := math.Hypot(bx-ax, by-ay)
-		pos := 0.0
-		for pos < seg {
-			step := math.Min(left, seg-pos)
-			if on {
-				t0, t1 := pos/seg, (pos+step)/seg
-				path.MoveTo(float32(ax+(bx-ax)*t0), float32(ay+(by-ay)*t0))
-				path.LineTo(float32(ax+(bx-ax)*t1), float32(ay+(by-ay)*t1))
-			}
-			pos += step
-			left -= step
-			if left <= 1e-9 {
-				k = (k + 1) % len(dash)
-				left, on = dash[k]*scale, !on
-			}
+func (p *painter) tri(a, b, c uint16) { p.is = append(p.is, a, b, c) }
+
+// quadIdx adds the two triangles of the quad a b c d (in order round it).
+func (p *painter) quadIdx(a, b, c, d uint16) { p.is = append(p.is, a, b, c, a, c, d) }
+
+// scaled converts layout points to device pixels into p.pts, dropping
+// repeated points.
+func (p *painter) scaled(pts []chart.Point, scale float64) []vec {
+	p.pts = p.pts[:0]
+	for _, q := range pts {
+		v := vec{float32(q.X * scale), float32(q.Y * scale)}
+		if n := len(p.pts); n > 0 && p.pts[n-1] == v {
+			continue
 		}
+		p.pts = append(p.pts, v)
 	}
-}
-
-// fill fills a polygon as one DrawTriangles call.
-func (p *painter) fill(dst *ebiten.Image, pts []chart.Point, c color.RGBA, scale float64) {
-	if len(pts) < 3 || c.A == 0 {
-		return
-	}
-	var path vector.Path
-	path.MoveTo(float32(pts[0].X*scale), float32(pts[0].Y*scale))
-	for _, q := range pts[1:] {
-		path.LineTo(float32(q.X*scale), float32(q.Y*scale))
-	}
-	path.Close()
-	p.vs, p.is = path.AppendVerticesAndIndicesForFilling(p.vs[:0], p.is[:0])
-	p.triangles(dst, c, ebiten.FillRuleNonZero, !straight(pts))
+	return p.pts
 }
 
 // straight reports whether every edge of a path is horizontal or vertical:
-// such paths (grid, ticks, bands, hatch frames) need no anti-aliasing, which
-// costs an extra pass under a software renderer.
-func straight(pts []chart.Point) bool {
+// such edges (grid, ticks, bands, frames) are drawn without a fringe, so
+// that they stay sharp.
+func straight(pts []vec) bool {
 	for i := 1; i < len(pts); i++ {
-		if pts[i].X != pts[i-1].X && pts[i].Y != pts[i-1].Y {
+		if pts[i].x != pts[i-1].x && pts[i].y != pts[i-1].y {
 			return false
 		}
 	}
 	return true
 }
 
-func (p *painter) triangles(dst *ebiten.Image, c color.RGBA, rule ebiten.FillRule, antialias bool) {
-	r, g, b, a := float32(c.R)/255, float32(c.G)/255, float32(c.B)/255, float32(c.A)/255
-	for i := range p.vs {
-		p.vs[i].SrcX, p.vs[i].SrcY = 1.5, 1.5
-		// Straight alpha: DrawTrianglesOptions' default colour-scale mode.
-		p.vs[i].ColorR, p.vs[i].ColorG, p.vs[i].ColorB, p.vs[i].ColorA = r, g, b, a
+// fill fills a polygon. The layouts' areas are convex (rectangles and
+// discs), so a fan of triangles fills them; a fringe smooths the edge of
+// any that is not made of straight edges.
+func (p *painter) fill(dst *ebiten.Image, pts []chart.Point, c color.RGBA, scale float64) {
+	if c.A == 0 {
+		return
 	}
-	op := &ebiten.DrawTrianglesOptions{FillRule: rule, AntiAlias: antialias && !p.draft}
-	dst.DrawTriangles(p.vs, p.is, p.white, op)
-}
-
-// label is one line of text rendered once, white on transparent, to be
-// tinted when drawn.
-type label struct {
-	img      *ebiten.Image
-	w        float64 // advance width, device px
-	ascent   float64 // from the top of img to the baseline, device px
-	pad      float64
-	lastUsed int
-}
-
-type labelKey struct {
-	s    string
-	px   int // size in 1/8 device px
-	bold bool
-}
-
-// maxLabels bounds the label cache; when it is full, the labels not used
-// in the last frames are dropped.
-const maxLabels = 600
-
-// label returns the rendered image of a line of text. Labels repeat from
-// frame to frame (ticks, titles, zone names), so one DrawImage per label
-// replaces one per glyph.
-func (p *painter) label(s string, sizePx float64, bold bool) *label {
-	k := labelKey{s, int(math.Round(sizePx * 8)), bold}
-	if l, ok := p.labels[k]; ok {
-		l.lastUsed = p.frame
-		return l
+	v := p.scaled(pts, scale)
+	if n := len(v); n > 1 && v[0] == v[n-1] {
+		v = v[:n-1]
 	}
-	if len(p.labels) >= maxLabels {
-		for k, l := range p.labels {
-			if l.lastUsed < p.frame-1 {
-				l.img.Deallocate()
-				delete(p.labels, k)
+	n := len(v)
+	if n < 3 {
+		return
+	}
+	smooth := !straight(append(v, v[0]))
+	p.reserve(dst, 2*n)
+	base := uint16(len(p.vs))
+	for _, q := range v {
+		p.vertex(q, c, 1)
+	}
+	for i := 2; i < n; i++ {
+		p.tri(base, base+uint16(i-1), base+uint16(i))
+	}
+	if !smooth {
+		return
+	}
+	// The fringe: each vertex pushed out along its mitre, fading to 0.
+	// Normals point to the left of each edge, which is outwards when the
+	// polygon runs clockwise on screen.
+	orient := float32(1)
+	if area2(v) < 0 {
+		orient = -1
+	}
+	outer := uint16(len(p.vs))
+	for i := range v {
+		prev, next := v[(i+n-1)%n], v[(i+1)%n]
+		m := miter(normal(prev, v[i]), normal(v[i], next))
+		p.vertex(vec{v[i].x + orient*m.x*fringe, v[i].y + orient*m.y*fringe}, c, 0)
+	}
+	for i := range n {
+		j := (i + 1) % n
+		p.quadIdx(base+uint16(i), base+uint16(j), outer+uint16(j), outer+uint16(i))
+	}
+}
+
+// area2 is twice the signed area of a polygon: positive when its points
+// go clockwise on screen (y down).
+func area2(v []vec) float32 {
+	var s float32
+	for i := range v {
+		j := (i + 1) % len(v)
+		s += v[i].x*v[j].y - v[j].x*v[i].y
+	}
+	return s
+}
+
+// normal is the unit normal of the segment a→b, to its left on screen
+// (y down): for a segment going right, it points up.
+func normal(a, b vec) vec {
+	dx, dy := b.x-a.x, b.y-a.y
+	l := float32(math.Hypot(float64(dx), float64(dy)))
+	if l == 0 {
+		return vec{}
+	}
+	return vec{dy / l, -dx / l}
+}
+
+// maxMiter bounds how far a sharp corner's mitre reaches, in half widths.
+const maxMiter = 4
+
+// miter is the offset direction at a corner between two segments with
+// unit normals n0 and n1, scaled so that both edges keep their width.
+func miter(n0, n1 vec) vec {
+	m := vec{n0.x + n1.x, n0.y + n1.y}
+	l := float32(math.Hypot(float64(m.x), float64(m.y)))
+	if l < 1e-6 {
+		return n0
+	}
+	m = vec{m.x / l, m.y / l}
+	d := m.x*n0.x + m.y*n0.y // cos of half the turn
+	if d < 1/float32(maxMiter) {
+		d = 1 / float32(maxMiter)
+	}
+	return vec{m.x / d, m.y / d}
+}
+
+// strokeItem strokes a polyline of width w device px, dashed when asked.
+func (p *painter) strokeItem(dst *ebiten.Image, pts []chart.Point, dash []float64, w float64, c color.RGBA, scale float64, closed bool) {
+	if w <= 0 || c.A == 0 || len(pts) < 2 {
+		return
+	}
+	v := p.scaled(pts, scale)
+	if len(dash) >= 2 {
+		if closed {
+			v = append(v, v[0])
+		}
+		for _, run := range p.dashes(v, dash, scale) {
+			p.stroke(dst, run, float32(w), c, false)
+		}
+		return
+	}
+	p.stroke(dst, v, float32(w), c, closed)
+}
+
+// dashes cuts a polyline into the runs a dash pattern (in layout units)
+// draws.
+func (p *painter) dashes(v []vec, dash []float64, scale float64) [][]vec {
+	for i := range p.runs {
+		p.runs[i] = p.runs[i][:0]
+	}
+	p.runs = p.runs[:0]
+	var cur []vec
+	k, left, on := 0, float32(dash[0]*scale), true
+	if on {
+		cur = p.newRun(v[0])
+	}
+	for i := 1; i < len(v); i++ {
+		a, b := v[i-1], v[i]
+		seg := float32(math.Hypot(float64(b.x-a.x), float64(b.y-a.y)))
+		pos := float32(0)
+		for pos < seg {
+			step := min(left, seg-pos)
+			pos += step
+			left -= step
+			at := vec{a.x + (b.x-a.x)*pos/seg, a.y + (b.y-a.y)*pos/seg}
+			if on {
+				cur = append(cur, at)
+				p.runs[len(p.runs)-1] = cur
+			}
+			if left <= 1e-4 {
+				k = (k + 1) % len(dash)
+				left, on = float32(dash[k]*scale), !on
+				if on {
+					cur = p.newRun(at)
+				}
 			}
 		}
 	}
-	f := p.face(sizePx)
-	m := f.Metrics()
-	w := text.Advance(s, f)
-	extra := 0.0
-	if bold {
-		extra = math.Max(1, math.Round(boldOffset*sizePx))
-	}
-	const pad = 2.0
-	iw := int(math.Ceil(w+extra+2*pad)) + 1
-	ih := int(math.Ceil(m.HAscent+m.HDescent+2*pad)) + 1
-	img := ebiten.NewImage(max(iw, 1), max(ih, 1))
-	op := &text.DrawOptions{}
-	op.GeoM.Translate(pad, pad)
-	text.Draw(img, s, f, op)
-	if bold {
-		op.GeoM.Translate(extra, 0)
-		text.Draw(img, s, f, op)
-	}
-	l := &label{img: img, w: w + extra, ascent: m.HAscent + pad, pad: pad, lastUsed: p.frame}
-	p.labels[k] = l
-	return l
+	return p.runs
 }
 
-// text draws one line of text at its baseline anchor.
+func (p *painter) newRun(start vec) []vec {
+	if len(p.runs) < cap(p.runs) {
+		p.runs = p.runs[:len(p.runs)+1]
+	} else {
+		p.runs = append(p.runs, nil)
+	}
+	r := append(p.runs[len(p.runs)-1][:0], start)
+	p.runs[len(p.runs)-1] = r
+	return r
+}
+
+// stroke strokes a polyline of width w as one strip of triangles with
+// mitred corners (butt ends), smoothed by a fringe unless every segment is
+// horizontal or vertical.
+func (p *painter) stroke(dst *ebiten.Image, v []vec, w float32, c color.RGBA, closed bool) {
+	n := len(v)
+	if closed && n > 1 && v[0] == v[n-1] {
+		v, n = v[:n-1], n-1
+	}
+	if n < 2 {
+		return
+	}
+	smooth := !straight(v) || closed && !straight([]vec{v[n-1], v[0]})
+	alpha := float32(1)
+	core, outer := w/2, w/2
+	if smooth {
+		if w < fringe {
+			// A hairline: one pixel wide, fainter.
+			alpha, w = w/fringe, fringe
+		}
+		core, outer = (w-fringe)/2, (w+fringe)/2
+	}
+	per := 2
+	if smooth {
+		per = 4
+	}
+	// A strip is drawn in one piece, so split very long ones.
+	const maxPts = 4096
+	if n > maxPts {
+		for i := 0; i < n-1; i += maxPts - 1 {
+			p.stroke(dst, v[i:min(n, i+maxPts)], w, c, false)
+		}
+		if closed {
+			p.stroke(dst, []vec{v[n-1], v[0]}, w, c, false)
+		}
+		return
+	}
+	p.reserve(dst, per*(n+1))
+	first := uint16(len(p.vs))
+	for i := range n {
+		var m vec
+		switch {
+		case closed:
+			m = miter(normal(v[(i+n-1)%n], v[i]), normal(v[i], v[(i+1)%n]))
+		case i == 0:
+			m = normal(v[0], v[1])
+		case i == n-1:
+			m = normal(v[n-2], v[n-1])
+		default:
+			m = miter(normal(v[i-1], v[i]), normal(v[i], v[i+1]))
+		}
+		at := v[i]
+		if smooth {
+			p.vertex(vec{at.x + m.x*outer, at.y + m.y*outer}, c, 0)
+		}
+		p.vertex(vec{at.x + m.x*core, at.y + m.y*core}, c, alpha)
+		p.vertex(vec{at.x - m.x*core, at.y - m.y*core}, c, alpha)
+		if smooth {
+			p.vertex(vec{at.x - m.x*outer, at.y - m.y*outer}, c, 0)
+		}
+	}
+	segs := n - 1
+	if closed {
+		segs = n
+	}
+	for s := range segs {
+		a := first + uint16(per*s)
+		b := first + uint16(per*((s+1)%n))
+		for k := range uint16(per - 1) {
+			p.quadIdx(a+k, b+k, b+k+1, a+k+1)
+		}
+	}
+}
+
+// text draws one line of text at its baseline anchor, glyph by glyph from
+// the atlas, advancing by the same widths the layout measured.
 func (p *painter) text(dst *ebiten.Image, it *chart.Item, scale float64) {
-	l := p.label(it.Text, it.Size*scale, it.Bold)
-	x := -l.pad
+	if it.Fill.A == 0 || it.Text == "" {
+		return
+	}
+	size := it.Size * scale
+	px := int(math.Round(size * 8))
+	w := p.measure(it.Text, size, it.Bold)
+	x := 0.0
 	switch it.Anchor {
 	case chart.Middle:
-		x -= l.w / 2
+		x = -w / 2
 	case chart.End:
-		x -= l.w
+		x = -w
 	}
-	op := &ebiten.DrawImageOptions{}
-	op.GeoM.Translate(x, -l.ascent)
+	// Horizontal text sits on a whole-pixel baseline; vertical text turns
+	// about a whole-pixel anchor, so its glyphs stay on the pixel grid.
+	ox, oy := it.At.X*scale, math.Round(it.At.Y*scale)
 	if it.Vertical {
-		op.GeoM.Rotate(-math.Pi / 2)
+		ox, oy = math.Round(it.At.X*scale), math.Round(it.At.Y*scale)
 	}
-	op.GeoM.Translate(it.At.X*scale, it.At.Y*scale)
-	op.ColorScale.ScaleWithColor(it.Fill)
-	op.Filter = ebiten.FilterLinear
-	dst.DrawImage(l.img, op)
+	bold := 0.0
+	if it.Bold {
+		bold = math.Max(1, math.Round(boldOffset*size))
+	}
+	f := size / 64
+	r, g, b, a := float32(it.Fill.R)/255, float32(it.Fill.G)/255, float32(it.Fill.B)/255, float32(it.Fill.A)/255
+	for _, ru := range it.Text {
+		adv := p.advance64(ru) * f
+		for pass := range 2 {
+			if pass == 1 && bold == 0 {
+				break
+			}
+			pen := x + float64(pass)*bold
+			if !it.Vertical {
+				pen += ox
+			}
+			whole := math.Floor(pen)
+			phase := uint8(math.Floor((pen - whole) * phases))
+			gl, ok := p.glyph(dst, ru, px, phase)
+			if !ok {
+				continue
+			}
+			sw, sh := float32(gl.src.Dx()), float32(gl.src.Dy())
+			// The glyph's top-left, as an offset along the baseline (u)
+			// and down from it (v).
+			u, vv := float32(whole)+float32(gl.dx), float32(gl.dy)
+			corners := [4][2]float32{{u, vv}, {u + sw, vv}, {u + sw, vv + sh}, {u, vv + sh}}
+			srcs := [4][2]float32{
+				{float32(gl.src.Min.X), float32(gl.src.Min.Y)}, {float32(gl.src.Max.X), float32(gl.src.Min.Y)},
+				{float32(gl.src.Max.X), float32(gl.src.Max.Y)}, {float32(gl.src.Min.X), float32(gl.src.Max.Y)},
+			}
+			p.reserve(dst, 4)
+			base := uint16(len(p.vs))
+			for k, cn := range corners {
+				var dx, dy float32
+				if it.Vertical {
+					// Turned 90° counter-clockwise about the anchor.
+					dx, dy = float32(ox)+cn[1], float32(oy)-cn[0]
+				} else {
+					dx, dy = cn[0], float32(oy)+cn[1]
+				}
+				p.vs = append(p.vs, ebiten.Vertex{DstX: dx, DstY: dy, SrcX: srcs[k][0], SrcY: srcs[k][1], ColorR: r, ColorG: g, ColorB: b, ColorA: a})
+			}
+			p.quadIdx(base, base+1, base+2, base+3)
+		}
+		x += adv
+	}
+}
+
+// ensureAtlas makes the atlas and its white patch.
+func (p *painter) ensureAtlas() {
+	if p.atlas != nil {
+		return
+	}
+	p.atlas = ebiten.NewImageWithOptions(image.Rect(0, 0, atlasSize, atlasSize), &ebiten.NewImageOptions{Unmanaged: true})
+	p.resetAtlas()
+}
+
+// resetAtlas empties the atlas but for its white patch.
+func (p *painter) resetAtlas() {
+	p.atlas.Clear()
+	p.atlas.SubImage(image.Rect(0, 0, whiteSize, whiteSize)).(*ebiten.Image).Fill(color.White)
+	clear(p.glyphs)
+	p.shelf = shelfPacker{w: atlasSize, h: atlasSize, x: whiteSize + 1, shelfH: whiteSize + 1}
+}
+
+// glyph returns a glyph from the atlas, rasterising it there first if
+// need be. It reports false for a glyph with no ink (a space).
+func (p *painter) glyph(dst *ebiten.Image, r rune, px int, phase uint8) (glyph, bool) {
+	k := glyphKey{r, px, phase}
+	if g, ok := p.glyphs[k]; ok {
+		return g, g.src.Dx() > 0
+	}
+	f := p.face(float64(px) / 8)
+	dot := fixed.Point26_6{X: fixed.Int26_6(int(phase) * 64 / phases)}
+	dr, mask, mp, _, ok := f.Glyph(dot, r)
+	if !ok {
+		dr, mask, mp, _, ok = f.Glyph(dot, '\ufffd')
+	}
+	if !ok || dr.Empty() {
+		p.glyphs[k] = glyph{}
+		return glyph{}, false
+	}
+	// One pixel of clear space round each glyph, so that neighbours never
+	// bleed into each other.
+	w, h := dr.Dx(), dr.Dy()
+	at, fits := p.shelf.place(w+2, h+2)
+	if !fits {
+		// Full: draw what uses the old glyphs, then start again.
+		p.flush(dst)
+		p.resetAtlas()
+		if at, fits = p.shelf.place(w+2, h+2); !fits {
+			p.glyphs[k] = glyph{}
+			return glyph{}, false
+		}
+	}
+	src := image.Rect(at.X+1, at.Y+1, at.X+1+w, at.Y+1+h)
+	p.pix = p.pix[:0]
+	alpha, isAlpha := mask.(*image.Alpha)
+	for y := range h {
+		for x := range w {
+			var v byte
+			if isAlpha {
+				v = alpha.AlphaAt(mp.X+x, mp.Y+y).A
+			} else {
+				_, _, _, a := mask.At(mp.X+x, mp.Y+y).RGBA()
+				v = byte(a >> 8)
+			}
+			p.pix = append(p.pix, v, v, v, v)
+		}
+	}
+	p.atlas.SubImage(src).(*ebiten.Image).WritePixels(p.pix)
+	g := glyph{src: src, dx: dr.Min.X, dy: dr.Min.Y}
+	p.glyphs[k] = g
+	return g, true
+}
+
+// shelfPacker places rectangles in rows ("shelves") left to right, top
+// to bottom.
+type shelfPacker struct {
+	w, h     int
+	x        int // the next free spot on the current shelf
+	shelfH   int
+	shelfTop int
+}
+
+func (s *shelfPacker) place(w, h int) (image.Point, bool) {
+	if w > s.w || h > s.h {
+		return image.Point{}, false
+	}
+	if s.x+w > s.w {
+		s.shelfTop += s.shelfH
+		s.x, s.shelfH = 0, 0
+	}
+	if s.shelfTop+h > s.h {
+		return image.Point{}, false
+	}
+	at := image.Point{s.x, s.shelfTop}
+	s.x += w
+	s.shelfH = max(s.shelfH, h)
+	return at, true
 }

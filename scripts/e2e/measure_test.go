@@ -50,7 +50,7 @@ func BenchmarkDragInBrowser(b *testing.B) {
 		b.ReportMetric(float64(frames)/4, "frames/s")
 		st = br.state()
 	}
-	for _, k := range []string{"update_ms", "draw_ms", "recompute_ms", "static_ms"} {
+	for _, k := range []string{"update_ms", "draw_ms", "recompute_ms"} {
 		v := slices.Clone(st.Timings[k])
 		if len(v) == 0 {
 			b.Fatalf("no %s recorded", k)
