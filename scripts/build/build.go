@@ -49,6 +49,10 @@ type Options struct {
 	WasmPkg  string // Go package of the WebAssembly main, such as "./wasm"
 	WasmDir  string // working directory of the wasm compile; "" for the current one
 	WasmExec string // path of wasm_exec.js; "" to take it from GOROOT
+	// KeepNames keeps the function names in the WebAssembly binary (about
+	// 0.7 MB more before compression), so that a browser profile names Go
+	// functions. Release builds leave it false.
+	KeepNames bool
 
 	// CompileWasm writes the WebAssembly binary to the file out. Nil means
 	// GoCompileWasm, which runs the Go toolchain.
@@ -293,6 +297,8 @@ func compileWasm(ctx context.Context, opts Options) ([]byte, error) {
 //
 //	GOOS=js GOARCH=wasm go build -trimpath -ldflags="-s -w" -o out pkg
 //
+// (without -s -w when opts.KeepNames)
+//
 // in opts.WasmDir, sending the compiler's output to opts.Log.
 func GoCompileWasm(ctx context.Context, opts Options, out string) error {
 	if opts.WasmPkg == "" {
@@ -302,7 +308,11 @@ func GoCompileWasm(ctx context.Context, opts Options, out string) error {
 	if err != nil {
 		return err
 	}
-	cmd := exec.CommandContext(ctx, goTool(), "build", "-trimpath", "-ldflags=-s -w", "-o", abs, opts.WasmPkg)
+	ldflags := "-ldflags=-s -w"
+	if opts.KeepNames {
+		ldflags = "-ldflags="
+	}
+	cmd := exec.CommandContext(ctx, goTool(), "build", "-trimpath", ldflags, "-o", abs, opts.WasmPkg)
 	cmd.Dir = opts.WasmDir
 	cmd.Env = append(os.Environ(), "GOOS=js", "GOARCH=wasm", "CGO_ENABLED=0")
 	var msg bytes.Buffer

@@ -55,8 +55,9 @@ func parseFlags(args []string, stderr io.Writer) (Options, error) {
 	fs.StringVar(&opts.OutDir, "o", "dist", "output `directory`, emptied first (only if it is empty or holds a previous build)")
 	fs.StringVar(&opts.SiteDir, "site", "site", "`directory` of the site sources (index.html, sw.js, ...)")
 	fs.StringVar(&opts.WasmPkg, "wasm", "./wasm", "Go `package` of the WebAssembly main")
+	fs.BoolVar(&opts.KeepNames, "names", false, "keep Go function names in the .wasm, for profiling in the browser")
 	fs.Usage = func() {
-		fmt.Fprintln(fs.Output(), "usage: go run ./scripts/build [-o dist] [-site site] [-wasm ./wasm]")
+		fmt.Fprintln(fs.Output(), "usage: go run ./scripts/build [-o dist] [-site site] [-wasm ./wasm] [-names]")
 		fs.PrintDefaults()
 	}
 	if err := fs.Parse(args); err != nil {
