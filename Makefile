@@ -25,7 +25,7 @@ unit:
 	$(GO) test -count=1 $(UNIT_PKGS)
 
 wasmtest:
-	PATH="$$PATH:$(WASMPATH)" GOOS=js GOARCH=wasm $(GO) test -count=1 ./calc/... ./wasm/session/
+	PATH="$$PATH:$(WASMPATH)" GOOS=js GOARCH=wasm $(GO) test -count=1 ./calc/... ./wasm/session/ ./wasm/tess/
 
 # The browser suite: builds the site, serves it on 127.0.0.1 and drives
 # Chromium. It fails, saying how to install it, when Chromium is missing.

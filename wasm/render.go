@@ -15,6 +15,7 @@ import (
 	"golang.org/x/image/math/fixed"
 
 	"setcard/calc/chart"
+	"setcard/wasm/tess"
 )
 
 // painter draws chart layouts with Ebiten. It does no layout arithmetic:
@@ -43,14 +44,15 @@ type painter struct {
 
 	atlas  *ebiten.Image
 	glyphs map[glyphKey]glyph
-	shelf  shelfPacker
+	shelf  tess.Shelf
 	pix    []byte
 
 	vs []ebiten.Vertex
 	is []uint16
 	// pts and runs are scratch space for strokes and dashes.
-	pts  []vec
-	runs [][]vec
+	pts  []tess.Vec
+	runs [][]tess.Vec
+	tris []int
 }
 
 // The atlas: a white patch in its top-left corner, glyphs after it. When
@@ -80,8 +82,6 @@ type glyph struct {
 	src    image.Rectangle
 	dx, dy int
 }
-
-type vec struct{ x, y float32 }
 
 func newPainter() *painter {
 	reg, err := opentype.Parse(goregular.TTF)
@@ -197,26 +197,24 @@ func (p *painter) reserve(dst *ebiten.Image, n int) {
 }
 
 // vertex adds a vertex of solid colour c at alpha a (0 to 1).
-func (p *painter) vertex(v vec, c color.RGBA, a float32) uint16 {
+func (p *painter) vertex(v tess.Vec, c color.RGBA, a float32) uint16 {
 	p.vs = append(p.vs, ebiten.Vertex{
-		DstX: v.x, DstY: v.y, SrcX: whiteUV, SrcY: whiteUV,
+		DstX: v.X, DstY: v.Y, SrcX: whiteUV, SrcY: whiteUV,
 		ColorR: float32(c.R) / 255, ColorG: float32(c.G) / 255, ColorB: float32(c.B) / 255,
 		ColorA: float32(c.A) / 255 * a,
 	})
 	return uint16(len(p.vs) - 1)
 }
 
-func (p *painter) tri(a, b, c uint16) { p.is = append(p.is, a, b, c) }
-
 // quadIdx adds the two triangles of the quad a b c d (in order round it).
 func (p *painter) quadIdx(a, b, c, d uint16) { p.is = append(p.is, a, b, c, a, c, d) }
 
 // scaled converts layout points to device pixels into p.pts, dropping
 // repeated points.
-func (p *painter) scaled(pts []chart.Point, scale float64) []vec {
+func (p *painter) scaled(pts []chart.Point, scale float64) []tess.Vec {
 	p.pts = p.pts[:0]
 	for _, q := range pts {
-		v := vec{float32(q.X * scale), float32(q.Y * scale)}
+		v := tess.Vec{X: float32(q.X * scale), Y: float32(q.Y * scale)}
 		if n := len(p.pts); n > 0 && p.pts[n-1] == v {
 			continue
 		}
@@ -225,21 +223,9 @@ func (p *painter) scaled(pts []chart.Point, scale float64) []vec {
 	return p.pts
 }
 
-// straight reports whether every edge of a path is horizontal or vertical:
-// such edges (grid, ticks, bands, frames) are drawn without a fringe, so
-// that they stay sharp.
-func straight(pts []vec) bool {
-	for i := 1; i < len(pts); i++ {
-		if pts[i].x != pts[i-1].x && pts[i].y != pts[i-1].y {
-			return false
-		}
-	}
-	return true
-}
-
-// fill fills a polygon. The layouts' areas are convex (rectangles and
-// discs), so a fan of triangles fills them; a fringe smooths the edge of
-// any that is not made of straight edges.
+// fill fills a simple polygon (the layouts' areas are rectangles and
+// discs, which a fan fills); a fringe smooths the edge of any that is not
+// made of straight edges.
 func (p *painter) fill(dst *ebiten.Image, pts []chart.Point, c color.RGBA, scale float64) {
 	if c.A == 0 {
 		return
@@ -252,14 +238,15 @@ func (p *painter) fill(dst *ebiten.Image, pts []chart.Point, c color.RGBA, scale
 	if n < 3 {
 		return
 	}
-	smooth := !straight(append(v, v[0]))
+	smooth := !tess.Straight(append(v, v[0]))
 	p.reserve(dst, 2*n)
 	base := uint16(len(p.vs))
 	for _, q := range v {
 		p.vertex(q, c, 1)
 	}
-	for i := 2; i < n; i++ {
-		p.tri(base, base+uint16(i-1), base+uint16(i))
+	p.tris = tess.Triangulate(v, p.tris[:0])
+	for _, k := range p.tris {
+		p.is = append(p.is, base+uint16(k))
 	}
 	if !smooth {
 		return
@@ -268,60 +255,19 @@ func (p *painter) fill(dst *ebiten.Image, pts []chart.Point, c color.RGBA, scale
 	// Normals point to the left of each edge, which is outwards when the
 	// polygon runs clockwise on screen.
 	orient := float32(1)
-	if area2(v) < 0 {
+	if tess.Area2(v) < 0 {
 		orient = -1
 	}
 	outer := uint16(len(p.vs))
 	for i := range v {
 		prev, next := v[(i+n-1)%n], v[(i+1)%n]
-		m := miter(normal(prev, v[i]), normal(v[i], next))
-		p.vertex(vec{v[i].x + orient*m.x*fringe, v[i].y + orient*m.y*fringe}, c, 0)
+		m := tess.Miter(tess.Normal(prev, v[i]), tess.Normal(v[i], next))
+		p.vertex(tess.Vec{X: v[i].X + orient*m.X*fringe, Y: v[i].Y + orient*m.Y*fringe}, c, 0)
 	}
 	for i := range n {
 		j := (i + 1) % n
 		p.quadIdx(base+uint16(i), base+uint16(j), outer+uint16(j), outer+uint16(i))
 	}
-}
-
-// area2 is twice the signed area of a polygon: positive when its points
-// go clockwise on screen (y down).
-func area2(v []vec) float32 {
-	var s float32
-	for i := range v {
-		j := (i + 1) % len(v)
-		s += v[i].x*v[j].y - v[j].x*v[i].y
-	}
-	return s
-}
-
-// normal is the unit normal of the segment a→b, to its left on screen
-// (y down): for a segment going right, it points up.
-func normal(a, b vec) vec {
-	dx, dy := b.x-a.x, b.y-a.y
-	l := float32(math.Hypot(float64(dx), float64(dy)))
-	if l == 0 {
-		return vec{}
-	}
-	return vec{dy / l, -dx / l}
-}
-
-// maxMiter bounds how far a sharp corner's mitre reaches, in half widths.
-const maxMiter = 4
-
-// miter is the offset direction at a corner between two segments with
-// unit normals n0 and n1, scaled so that both edges keep their width.
-func miter(n0, n1 vec) vec {
-	m := vec{n0.x + n1.x, n0.y + n1.y}
-	l := float32(math.Hypot(float64(m.x), float64(m.y)))
-	if l < 1e-6 {
-		return n0
-	}
-	m = vec{m.x / l, m.y / l}
-	d := m.x*n0.x + m.y*n0.y // cos of half the turn
-	if d < 1/float32(maxMiter) {
-		d = 1 / float32(maxMiter)
-	}
-	return vec{m.x / d, m.y / d}
 }
 
 // strokeItem strokes a polyline of width w device px, dashed when asked.
@@ -334,7 +280,7 @@ func (p *painter) strokeItem(dst *ebiten.Image, pts []chart.Point, dash []float6
 		if closed {
 			v = append(v, v[0])
 		}
-		for _, run := range p.dashes(v, dash, scale) {
+		for _, run := range p.dashRuns(v, dash, scale) {
 			p.stroke(dst, run, float32(w), c, false)
 		}
 		return
@@ -342,58 +288,10 @@ func (p *painter) strokeItem(dst *ebiten.Image, pts []chart.Point, dash []float6
 	p.stroke(dst, v, float32(w), c, closed)
 }
 
-// dashes cuts a polyline into the runs a dash pattern (in layout units)
-// draws.
-func (p *painter) dashes(v []vec, dash []float64, scale float64) [][]vec {
-	for i := range p.runs {
-		p.runs[i] = p.runs[i][:0]
-	}
-	p.runs = p.runs[:0]
-	var cur []vec
-	k, left, on := 0, float32(dash[0]*scale), true
-	if on {
-		cur = p.newRun(v[0])
-	}
-	for i := 1; i < len(v); i++ {
-		a, b := v[i-1], v[i]
-		seg := float32(math.Hypot(float64(b.x-a.x), float64(b.y-a.y)))
-		pos := float32(0)
-		for pos < seg {
-			step := min(left, seg-pos)
-			pos += step
-			left -= step
-			at := vec{a.x + (b.x-a.x)*pos/seg, a.y + (b.y-a.y)*pos/seg}
-			if on {
-				cur = append(cur, at)
-				p.runs[len(p.runs)-1] = cur
-			}
-			if left <= 1e-4 {
-				k = (k + 1) % len(dash)
-				left, on = float32(dash[k]*scale), !on
-				if on {
-					cur = p.newRun(at)
-				}
-			}
-		}
-	}
-	return p.runs
-}
-
-func (p *painter) newRun(start vec) []vec {
-	if len(p.runs) < cap(p.runs) {
-		p.runs = p.runs[:len(p.runs)+1]
-	} else {
-		p.runs = append(p.runs, nil)
-	}
-	r := append(p.runs[len(p.runs)-1][:0], start)
-	p.runs[len(p.runs)-1] = r
-	return r
-}
-
 // stroke strokes a polyline of width w as one strip of triangles with
 // mitred corners (butt ends), smoothed by a fringe unless every segment is
 // horizontal or vertical.
-func (p *painter) stroke(dst *ebiten.Image, v []vec, w float32, c color.RGBA, closed bool) {
+func (p *painter) stroke(dst *ebiten.Image, v []tess.Vec, w float32, c color.RGBA, closed bool) {
 	n := len(v)
 	if closed && n > 1 && v[0] == v[n-1] {
 		v, n = v[:n-1], n-1
@@ -401,7 +299,7 @@ func (p *painter) stroke(dst *ebiten.Image, v []vec, w float32, c color.RGBA, cl
 	if n < 2 {
 		return
 	}
-	smooth := !straight(v) || closed && !straight([]vec{v[n-1], v[0]})
+	smooth := !tess.Straight(v) || closed && !tess.Straight([]tess.Vec{v[n-1], v[0]})
 	alpha := float32(1)
 	core, outer := w/2, w/2
 	if smooth {
@@ -422,32 +320,32 @@ func (p *painter) stroke(dst *ebiten.Image, v []vec, w float32, c color.RGBA, cl
 			p.stroke(dst, v[i:min(n, i+maxPts)], w, c, false)
 		}
 		if closed {
-			p.stroke(dst, []vec{v[n-1], v[0]}, w, c, false)
+			p.stroke(dst, []tess.Vec{v[n-1], v[0]}, w, c, false)
 		}
 		return
 	}
 	p.reserve(dst, per*(n+1))
 	first := uint16(len(p.vs))
 	for i := range n {
-		var m vec
+		var m tess.Vec
 		switch {
 		case closed:
-			m = miter(normal(v[(i+n-1)%n], v[i]), normal(v[i], v[(i+1)%n]))
+			m = tess.Miter(tess.Normal(v[(i+n-1)%n], v[i]), tess.Normal(v[i], v[(i+1)%n]))
 		case i == 0:
-			m = normal(v[0], v[1])
+			m = tess.Normal(v[0], v[1])
 		case i == n-1:
-			m = normal(v[n-2], v[n-1])
+			m = tess.Normal(v[n-2], v[n-1])
 		default:
-			m = miter(normal(v[i-1], v[i]), normal(v[i], v[i+1]))
+			m = tess.Miter(tess.Normal(v[i-1], v[i]), tess.Normal(v[i], v[i+1]))
 		}
 		at := v[i]
 		if smooth {
-			p.vertex(vec{at.x + m.x*outer, at.y + m.y*outer}, c, 0)
+			p.vertex(tess.Vec{X: at.X + m.X*outer, Y: at.Y + m.Y*outer}, c, 0)
 		}
-		p.vertex(vec{at.x + m.x*core, at.y + m.y*core}, c, alpha)
-		p.vertex(vec{at.x - m.x*core, at.y - m.y*core}, c, alpha)
+		p.vertex(tess.Vec{X: at.X + m.X*core, Y: at.Y + m.Y*core}, c, alpha)
+		p.vertex(tess.Vec{X: at.X - m.X*core, Y: at.Y - m.Y*core}, c, alpha)
 		if smooth {
-			p.vertex(vec{at.x - m.x*outer, at.y - m.y*outer}, c, 0)
+			p.vertex(tess.Vec{X: at.X - m.X*outer, Y: at.Y - m.Y*outer}, c, 0)
 		}
 	}
 	segs := n - 1
@@ -548,7 +446,7 @@ func (p *painter) resetAtlas() {
 	p.atlas.Clear()
 	p.atlas.SubImage(image.Rect(0, 0, whiteSize, whiteSize)).(*ebiten.Image).Fill(color.White)
 	clear(p.glyphs)
-	p.shelf = shelfPacker{w: atlasSize, h: atlasSize, x: whiteSize + 1, shelfH: whiteSize + 1}
+	p.shelf = tess.Shelf{W: atlasSize, H: atlasSize, X: whiteSize + 1, ShelfH: whiteSize + 1}
 }
 
 // glyph returns a glyph from the atlas, rasterising it there first if
@@ -571,17 +469,17 @@ func (p *painter) glyph(dst *ebiten.Image, r rune, px int, phase uint8) (glyph, 
 	// One pixel of clear space round each glyph, so that neighbours never
 	// bleed into each other.
 	w, h := dr.Dx(), dr.Dy()
-	at, fits := p.shelf.place(w+2, h+2)
+	ax, ay, fits := p.shelf.Place(w+2, h+2)
 	if !fits {
 		// Full: draw what uses the old glyphs, then start again.
 		p.flush(dst)
 		p.resetAtlas()
-		if at, fits = p.shelf.place(w+2, h+2); !fits {
+		if ax, ay, fits = p.shelf.Place(w+2, h+2); !fits {
 			p.glyphs[k] = glyph{}
 			return glyph{}, false
 		}
 	}
-	src := image.Rect(at.X+1, at.Y+1, at.X+1+w, at.Y+1+h)
+	src := image.Rect(ax+1, ay+1, ax+1+w, ay+1+h)
 	p.pix = p.pix[:0]
 	alpha, isAlpha := mask.(*image.Alpha)
 	for y := range h {
@@ -602,28 +500,9 @@ func (p *painter) glyph(dst *ebiten.Image, r rune, px int, phase uint8) (glyph, 
 	return g, true
 }
 
-// shelfPacker places rectangles in rows ("shelves") left to right, top
-// to bottom.
-type shelfPacker struct {
-	w, h     int
-	x        int // the next free spot on the current shelf
-	shelfH   int
-	shelfTop int
-}
-
-func (s *shelfPacker) place(w, h int) (image.Point, bool) {
-	if w > s.w || h > s.h {
-		return image.Point{}, false
-	}
-	if s.x+w > s.w {
-		s.shelfTop += s.shelfH
-		s.x, s.shelfH = 0, 0
-	}
-	if s.shelfTop+h > s.h {
-		return image.Point{}, false
-	}
-	at := image.Point{s.x, s.shelfTop}
-	s.x += w
-	s.shelfH = max(s.shelfH, h)
-	return at, true
+// dashRuns cuts a polyline into the runs its dash pattern draws, in the
+// painter's scratch space.
+func (p *painter) dashRuns(v []tess.Vec, dash []float64, scale float64) [][]tess.Vec {
+	p.runs = tess.Dashes(v, dash, scale, p.runs)
+	return p.runs
 }
