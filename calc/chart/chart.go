@@ -98,6 +98,7 @@ func Chart(m *calc.Model, o ChartOptions) *Layout {
 	if r := o.Recycle; r != nil && cap(r.Items) > 0 {
 		clear(r.Items) // drop what the old items point to
 		b.items = r.Items[:0]
+		b.slab = r.slab[:0]
 		*r = Layout{}
 	} else {
 		b.items = make([]Item, 0, 320)
@@ -105,7 +106,7 @@ func Chart(m *calc.Model, o ChartOptions) *Layout {
 	b.boxes = make([]Rect, 0, 128)
 	b.rect(Rect{0, 0, o.W, o.H}, White, 0, White, "background")
 	p := chartInto(b, m, o, governing(m, o.CurvePoints))
-	return &Layout{W: o.W, H: o.H, Unit: o.Unit, Title: Clean(m.Name), Items: b.items, Plot: p}
+	return &Layout{W: o.W, H: o.H, Unit: o.Unit, Title: Clean(m.Name), Items: b.items, Plot: p, slab: b.slab}
 }
 
 // chartInto lays the chart into b at (0, 0) and returns its plot.
@@ -248,8 +249,8 @@ func chartInto(b *builder, m *calc.Model, o ChartOptions, drops []dropData) *Plo
 	// Curves: solid above the refusal band, thin and dotted in it.
 	runs := make([][][]Point, len(p.Series))
 	for i, s := range p.Series {
-		above := make([]Point, 0, len(s.KN)+1)
-		below := make([]Point, 0, len(s.KN)+1)
+		above := b.points(len(s.KN) + 1)[:0]
+		below := b.points(len(s.KN) + 1)[:0]
 		for k := range s.KN {
 			pt := Point{p.XOf(s.KN[k]), p.YOf(s.SetMm10[k])}
 			if k > 0 && (s.SetMm10[k-1] >= p.MinSetMm10) != (s.SetMm10[k] >= p.MinSetMm10) {
@@ -266,10 +267,11 @@ func chartInto(b *builder, m *calc.Model, o ChartOptions, drops []dropData) *Plo
 				below = append(below, pt)
 			}
 		}
-		for _, r := range clipPolyline(below, fr) {
+		room := func(n int) []Point { return b.points(n)[:0] }
+		for _, r := range clipPolyline(below, fr, room) {
 			b.polyline(r, 0.07*ts, s.Colour, []float64{0.15 * ts, 0.25 * ts}, "curve-refusal")
 		}
-		runs[i] = clipPolyline(above, fr)
+		runs[i] = clipPolyline(above, fr, room)
 		for _, r := range runs[i] {
 			b.polyline(r, 0.2*ts, s.Colour, s.Dash, "curve")
 		}

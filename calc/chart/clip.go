@@ -45,8 +45,10 @@ func clipSegment(p, q Point, r Rect) (Point, Point, bool) {
 	return a, b, true
 }
 
-// clipPolyline returns the runs of a polyline that lie inside r.
-func clipPolyline(pts []Point, r Rect) [][]Point {
+// clipPolyline returns the runs of a polyline that lie inside r, taking
+// each run's memory from room, which returns an empty slice with space for
+// n points.
+func clipPolyline(pts []Point, r Rect, room func(n int) []Point) [][]Point {
 	var runs [][]Point
 	var cur []Point
 	flush := func() {
@@ -63,8 +65,7 @@ func clipPolyline(pts []Point, r Rect) [][]Point {
 		}
 		if len(cur) == 0 || cur[len(cur)-1] != a {
 			flush()
-			cur = make([]Point, 1, len(pts)-i+1)
-			cur[0] = a
+			cur = append(room(len(pts)-i+1), a)
 		}
 		cur = append(cur, b)
 	}

@@ -144,6 +144,10 @@ type Layout struct {
 	// Plot is the chart's plot, for crosshairs and hit-testing; nil when
 	// the layout has no chart.
 	Plot *Plot
+
+	// slab is the block the short point lists (lines, rectangles, discs)
+	// were cut from, kept for ChartOptions.Recycle.
+	slab []Point
 }
 
 // Texts returns the text items of the layout, in drawing order.
@@ -230,12 +234,28 @@ type builder struct {
 	boxes   []Rect
 	measure Measure
 	plot    *Plot
+	// slab is where short point lists are cut from, so that a chart's
+	// hundreds of grid lines and ticks are not as many allocations.
+	slab []Point
 }
 
 func (b *builder) add(it Item) { b.items = append(b.items, it) }
 
+// points returns room for n points cut from the slab, capped so that an
+// append cannot run into the next list.
+func (b *builder) points(n int) []Point {
+	if len(b.slab)+n > cap(b.slab) {
+		b.slab = make([]Point, 0, max(2*cap(b.slab), 512, n))
+	}
+	k := len(b.slab)
+	b.slab = b.slab[:k+n]
+	return b.slab[k : k+n : k+n]
+}
+
 func (b *builder) line(p, q Point, width float64, c color.RGBA, dash []float64) {
-	b.add(Item{Kind: Line, Points: []Point{p, q}, Width: width, Stroke: c, Dash: dash})
+	pts := b.points(2)
+	pts[0], pts[1] = p, q
+	b.add(Item{Kind: Line, Points: pts, Width: width, Stroke: c, Dash: dash})
 }
 
 func (b *builder) polyline(pts []Point, width float64, c color.RGBA, dash []float64, role string) {
@@ -246,7 +266,9 @@ func (b *builder) polyline(pts []Point, width float64, c color.RGBA, dash []floa
 }
 
 func (b *builder) rect(r Rect, fill color.RGBA, width float64, stroke color.RGBA, role string) {
-	b.add(Item{Kind: Area, Points: []Point{{r.X, r.Y}, {r.X + r.W, r.Y}, {r.X + r.W, r.Y + r.H}, {r.X, r.Y + r.H}},
+	pts := b.points(4)
+	pts[0], pts[1], pts[2], pts[3] = Point{r.X, r.Y}, Point{r.X + r.W, r.Y}, Point{r.X + r.W, r.Y + r.H}, Point{r.X, r.Y + r.H}
+	b.add(Item{Kind: Area, Points: pts,
 		Fill: fill, Width: width, Stroke: stroke, Role: role})
 }
 
@@ -258,7 +280,7 @@ func (b *builder) frame(r Rect, width float64, c color.RGBA) {
 // dot is a filled disc, as a polygon.
 func (b *builder) dot(c Point, r float64, fill color.RGBA, width float64, stroke color.RGBA, role string) {
 	const n = 20
-	pts := make([]Point, n)
+	pts := b.points(n)
 	for k := range n {
 		a := 2 * math.Pi * float64(k) / n
 		pts[k] = Point{c.X + r*math.Cos(a), c.Y + r*math.Sin(a)}

@@ -46,8 +46,14 @@ func decimals(step float64) int {
 	if !(step > 0) {
 		return 0
 	}
-	d := int(math.Ceil(-math.Log10(step) - 1e-9))
-	return max(d, 0)
+	// The smallest d ≥ 0 with step·10^d ≥ 1, give or take 1e-9 in the
+	// exponent: ⌈−log10(step) − 1e-9⌉, without a logarithm (slow under
+	// WebAssembly, and asked for every tick).
+	d := 0
+	for p := step; p < 1-2.3e-9 && d < 400; p *= 10 {
+		d++
+	}
+	return d
 }
 
 // formatTick writes a tick value with the decimals its step needs.

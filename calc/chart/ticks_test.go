@@ -100,3 +100,24 @@ func TestFormatTickAsStrconv(t *testing.T) {
 		t.Fatalf("only %d ticks checked", n)
 	}
 }
+
+// TestDecimalsAsLog checks decimals against its definition,
+// ⌈−log10(step) − 1e-9⌉ but not below 0, computed with math.Log10, over
+// the 1, 2, 5 steps from 1e-12 to 1e12 and random steps.
+func TestDecimalsAsLog(t *testing.T) {
+	want := func(step float64) int { return max(int(math.Ceil(-math.Log10(step)-1e-9)), 0) }
+	var steps []float64
+	for e := -12; e <= 12; e++ {
+		for _, m := range []float64{1, 2, 5} {
+			steps = append(steps, m*math.Pow10(e))
+		}
+	}
+	for k := range 5000 {
+		steps = append(steps, math.Pow(10, float64(k%240)/10-12)*(1+float64(k%7)/7))
+	}
+	for _, s := range steps {
+		if got, w := decimals(s), want(s); got != w {
+			t.Fatalf("decimals(%v) = %d, want %d", s, got, w)
+		}
+	}
+}

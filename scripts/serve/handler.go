@@ -101,6 +101,11 @@ func (h *fileHandler) ServeHTTP(w http.ResponseWriter, r *http.Request) {
 	hdr := w.Header()
 	hdr.Set("X-Content-Type-Options", "nosniff")
 	hdr.Set("Content-Security-Policy", contentSecurityPolicy)
+	// Cross-origin isolation: the site loads nothing from elsewhere, and
+	// an isolated page gets a fine clock (performance.now to 5 µs instead
+	// of 100 µs), which the canvas's timings need to be worth reading.
+	hdr.Set("Cross-Origin-Opener-Policy", "same-origin")
+	hdr.Set("Cross-Origin-Embedder-Policy", "require-corp")
 	if r.Method != http.MethodGet && r.Method != http.MethodHead {
 		hdr.Set("Allow", "GET, HEAD")
 		httpError(w, http.StatusMethodNotAllowed)

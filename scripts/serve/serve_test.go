@@ -221,6 +221,12 @@ func checkSecurityHeaders(t *testing.T, what string, h http.Header) {
 	if got := h.Get("Content-Security-Policy"); got != contentSecurityPolicy {
 		t.Errorf("%s: Content-Security-Policy = %q, want %q", what, got, contentSecurityPolicy)
 	}
+	if got := h.Get("Cross-Origin-Opener-Policy"); got != "same-origin" {
+		t.Errorf("%s: Cross-Origin-Opener-Policy = %q, want same-origin", what, got)
+	}
+	if got := h.Get("Cross-Origin-Embedder-Policy"); got != "require-corp" {
+		t.Errorf("%s: Cross-Origin-Embedder-Policy = %q, want require-corp", what, got)
+	}
 }
 
 func TestServeHead(t *testing.T) {
