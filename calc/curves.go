@@ -117,17 +117,17 @@ func (m *Model) curve(dropM float64, o CurveOptions) Curve {
 				continue
 			}
 			if r := sk * m.AreaMm2 / 1000; r > rLo && r < r0 {
-				rs = append(rs, r)
+				rs = insertSorted(rs, r)
 				if m.Method == Banded {
-					rs = append(rs, math.Nextafter(r, 0))
+					rs = insertSorted(rs, math.Nextafter(r, 0))
 				}
 			}
 		}
-		slices.Sort(rs)
 	}
 	f := m.DesignFactor()
+	c.Points = make([]CurvePoint, 0, len(rs))
 	for _, r := range rs {
-		s := m.setFor(r, dropM, l)
+		s := m.setAt(e, r, l)
 		if s < 0 {
 			// Banded: just past a column edge the set can fall below zero
 			// before the end of the curve; clip at refusal.
@@ -141,7 +141,7 @@ func (m *Model) curve(dropM float64, o CurveOptions) Curve {
 		if r < rLo || r > r0 {
 			return nil
 		}
-		s := math.Max(0, m.setFor(r, dropM, l))
+		s := math.Max(0, m.setAt(e, r, l))
 		return &Crossing{StressMPa: t, UltimateKN: r, DesignKN: r * f, SetMm: s}
 	}
 	c.EasyEdge = cross(m.EasyBelowMPa)
@@ -155,4 +155,10 @@ func (m *Model) curve(dropM float64, o CurveOptions) Curve {
 // set against capacity.
 func (m *Model) ZoneEdgesKN() (easyKN, hardKN float64) {
 	return m.EasyBelowMPa * m.AreaMm2 / 1000, m.HardFromMPa * m.AreaMm2 / 1000
+}
+
+// insertSorted inserts v into the ascending slice s, keeping it ascending.
+func insertSorted(s []float64, v float64) []float64 {
+	i, _ := slices.BinarySearch(s, v)
+	return slices.Insert(s, i, v)
 }

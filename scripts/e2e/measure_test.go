@@ -64,15 +64,10 @@ func BenchmarkDragInBrowser(b *testing.B) {
 		st = br.state()
 	}
 	for _, k := range []string{"update_ms", "draw_ms", "recompute_ms"} {
-		// Only the samples of the drag: draws and recomputes happen only on
-		// a change, so the new ones are those past the count before it.
-		// Update runs 60 times a second whatever happens, and its ring of
-		// 600 is full by then: its last 200 samples (3.3 s) are the drag's.
+		// Only the samples of the drag: those past the count before it,
+		// unless the ring has filled (then all it holds, mostly the drag's).
 		v := st.Timings[k]
-		switch n := len(v); {
-		case k == "update_ms":
-			v = v[max(0, n-200):]
-		case n < ringSize:
+		if n := len(v); n < ringSize {
 			v = v[min(n, before[k]):]
 		}
 		v = slices.Clone(v)
